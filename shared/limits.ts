@@ -1,0 +1,24 @@
+/**
+ * Every limit of the product in one place. The patch schema, the server and the client
+ * read these; nothing else spells a limit as a literal.
+ */
+export const LIMITS = {
+  /** Sample rates a patch may ask for, in Hz. */
+  sampleRatesHz: [44100, 48000, 88200, 96000] as const,
+  /** A render lasts more than 0 and at most this many seconds. */
+  maxDurationS: 60,
+  /** Highest number of modes a patch may keep. */
+  maxModes: 4096,
+  /** Most points in one polyline (displacement or velocity). */
+  maxPolylinePoints: 10_000,
+  /** Fewest points in one polyline: the two supports. */
+  minPolylinePoints: 2,
+  /** Longest patch name, in characters. */
+  maxNameLength: 200,
+  /** Largest inharmonicity coefficient B accepted (real strings are below 0.01). */
+  maxInharmonicityB: 1,
+  /** Largest patch JSON file the command line reads, in bytes. */
+  maxPatchFileBytes: 4 * 1024 * 1024,
+} as const;
+
+export type AllowedSampleRateHz = (typeof LIMITS.sampleRatesHz)[number];
