@@ -17,7 +17,7 @@ const positive = () => finiteNumber().gt(0, 'must be > 0');
 const nonNegative = () => finiteNumber().gte(0, 'must be >= 0');
 
 /** One polyline vertex: [x in metres along the string, value]. */
-const polylinePoint = z.tuple([finiteNumber(), finiteNumber()]);
+const polylinePoint = z.tuple([finiteNumber(), finiteNumber()], 'must be a pair [x, value]');
 
 const polyline = z
   .array(polylinePoint)
@@ -58,7 +58,7 @@ export const renderSchema = z.looseObject({
   ),
   durationS: positive().lte(LIMITS.maxDurationS, `must be <= ${LIMITS.maxDurationS}`),
   maxModes: finiteNumber()
-    .int('must be a whole number')
+    .int()
     .gte(1, 'must be >= 1')
     .lte(LIMITS.maxModes, `must be <= ${LIMITS.maxModes}`),
 });

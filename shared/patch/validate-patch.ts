@@ -10,6 +10,7 @@ const typeNames: Record<string, string> = {
   array: 'an array',
   tuple: 'an array',
   boolean: 'true or false',
+  int: 'a whole number',
 };
 
 function issueFromZod(issue: z.core.$ZodIssue, input: unknown): FieldIssue {
