@@ -72,6 +72,7 @@ export const MATERIALS: Readonly<Record<MaterialId, StringMaterial>> = {
     densityKgPerM3: 7850,
     youngsModulusPa: 203e9,
     tensileStrengthPa: () => null,
+    // Figures of the steel core: compute a wound string's μ with woundLinearDensityKgPerM and its B from the core.
     source: 'Wound strings carry their load in the core: only the string maker’s rating applies',
   },
 };

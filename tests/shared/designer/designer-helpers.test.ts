@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { dampingFromT60, t60AtFrequency, wavenumberAtFrequency } from '../../../shared/designer/damping-from-t60';
 import { inharmonicityFromMaterial } from '../../../shared/designer/inharmonicity';
-import { linearDensityFromMaterial } from '../../../shared/designer/linear-density';
+import { linearDensityFromMaterial, woundLinearDensityKgPerM } from '../../../shared/designer/linear-density';
 import { MATERIALS } from '../../../shared/designer/materials';
 import { centsBetween, frequencyHzToMidi, midiToFrequencyHz, midiToNoteName, noteNameToMidi } from '../../../shared/designer/pitch';
-import { lengthForPitchM, tensionForPitchN } from '../../../shared/designer/tension-for-pitch';
+import { lengthForPitchM, tensionForPitchN, tensionForStiffPitchN } from '../../../shared/designer/tension-for-pitch';
 import { tensileStressPa, tensionSafety } from '../../../shared/designer/tension-safety';
 import { fundamentalFrequencyHz, modeFrequencyHz } from '../../../shared/engine/mode-frequencies';
 
@@ -48,6 +48,26 @@ describe('string design', () => {
     expect(tension).toBeCloseTo(6e-4 * (2 * 0.65 * 329.6276) ** 2, 9);
     expect(fundamentalFrequencyHz({ lengthM: 0.65, tensionN: tension, linearDensityKgPerM: 6e-4 })).toBeCloseTo(329.6276, 9);
     expect(lengthForPitchM(tension, 6e-4, 329.6276)).toBeCloseTo(0.65, 12);
+  });
+
+  it('tunes the first partial of a stiff string, f1 = f0·√(1 + B), exactly onto the target (Fletcher 1964)', () => {
+    const [L, d, E] = [0.3, 1.2e-3, 203e9];
+    const mu = linearDensityFromMaterial(7850, d);
+    const tension = tensionForStiffPitchN(L, mu, 523.2511, E, d);
+    const string = { lengthM: L, tensionN: tension, linearDensityKgPerM: mu, inharmonicityB: inharmonicityFromMaterial(E, d, tension, L) };
+    expect(string.inharmonicityB).toBeGreaterThan(1e-3);
+    expect(modeFrequencyHz(string, 1)).toBeCloseTo(523.2511, 9);
+    expect(tension).toBeLessThan(tensionForPitchN(L, mu, 523.2511));
+  });
+
+  it('weighs a close-wound string as core plus wrap wire: π(d_c + d_w)/d_w of wrap per unit length (geometry, derived)', () => {
+    const mu = woundLinearDensityKgPerM({ densityKgPerM3: 7850, diameterM: 0.9e-3 }, { densityKgPerM3: 7850, diameterM: 0.8e-3 });
+    const core = 7850 * Math.PI * 0.81e-6 / 4;
+    const wrapWire = 7850 * Math.PI * 0.64e-6 / 4;
+    expect(mu).toBeCloseTo(core + wrapWire * Math.PI * (1.7 / 0.8), 12);
+    // Lighter than a solid steel rod of the overall 2.5 mm diameter, heavier than the core alone.
+    expect(mu).toBeLessThan(linearDensityFromMaterial(7850, 2.5e-3));
+    expect(mu).toBeGreaterThan(core);
   });
 
   it('gives μ = ρπd²/4: 0.33 mm music wire weighs 0.671 g/m (derived from ASTM A228 density 7.85 g/cm³)', () => {
