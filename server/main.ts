@@ -1,19 +1,49 @@
-import { createServer } from 'node:http';
+import { createServer, type Server } from 'node:http';
 import { createApp } from './app';
-import { CLIENT_DIST_DIR, serverPort } from './config';
+import type { AppContext } from './app-context';
+import { CLIENT_DIST_DIR, databasePath, loadServerConfig, serverPort } from './config';
+import { openDatabase } from './db/data-source';
+import { startFakeSmtpServer } from './mail/fake-smtp-server';
+import { createSmtpMailer } from './mail/mailer';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from './seed/demo-seed';
 
-/** Starts the HTTP server; in development Vite serves the client and forwards /api here. */
-export function startServer(options: { serveClient: boolean }) {
+const MAIL_FROM = 'Tautline <no-reply@tautline.local>';
+
+/**
+ * Starts Tautline: opens the database and runs its migrations, seeds the demo on a fresh database,
+ * connects mail (SMTP_URL, or a local fake mailbox), and serves the API (and, in production, the
+ * built client) on PORT.
+ */
+export async function startServer(options: { serveClient: boolean }): Promise<{ server: Server; close: () => Promise<void> }> {
   const port = serverPort();
-  const app = createApp({ clientDistDir: options.serveClient ? CLIENT_DIST_DIR : undefined });
-  const server = createServer(app);
-  server.listen(port, () => {
-    console.log(`Tautline server listening on http://localhost:${port}`);
-  });
-  const shutDown = () => server.close(() => process.exit(0));
+  const config = loadServerConfig(process.env, port);
+  const dataSource = await openDatabase(databasePath());
+  const log = (line: string) => console.log(line);
+
+  if (await seedDemo(dataSource, config.passwordHashCost)) {
+    log('Fresh database: seeded the demo studio "Kestrel Lantern Audio". Demo-only accounts (password "' + DEMO_PASSWORD + '"):');
+    for (const account of DEMO_ACCOUNTS) log(`  ${account.role.padEnd(9)} ${account.email}`);
+  }
+
+  const mailbox = process.env.SMTP_URL ? null : await startFakeSmtpServer();
+  const mailer = createSmtpMailer(process.env.SMTP_URL ?? (mailbox as NonNullable<typeof mailbox>).smtpUrl, MAIL_FROM);
+  if (mailbox) log(`No SMTP_URL: e-mail goes to the local mailbox at ${config.appUrl}/dev/mailbox`);
+
+  const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(), log };
+  const server = createServer(createApp(context, { clientDistDir: options.serveClient ? CLIENT_DIST_DIR : undefined }));
+  await new Promise<void>((resolve) => server.listen(port, resolve));
+  log(`Tautline is listening on ${config.appUrl}`);
+
+  const close = async () => {
+    await new Promise<void>((resolve) => server.close(() => resolve()));
+    mailer.close();
+    await mailbox?.close();
+    await dataSource.destroy();
+  };
+  const shutDown = () => void close().then(() => process.exit(0));
   process.once('SIGINT', shutDown);
   process.once('SIGTERM', shutDown);
-  return server;
+  return { server, close };
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) startServer({ serveClient: false });
+if (import.meta.url === `file://${process.argv[1]}`) await startServer({ serveClient: false });

@@ -17,6 +17,16 @@ export const LIMITS = {
   maxNameLength: 200,
   /** Largest inharmonicity coefficient B accepted (real strings are below 0.01). */
   maxInharmonicityB: 1,
+  /** Password length bounds. */
+  minPasswordLength: 10,
+  maxPasswordLength: 200,
+  /** Longest display name, studio, session or preset name, in characters. */
+  maxLabelLength: 120,
+  /** Most tags on one preset, and the longest tag. */
+  maxPresetTags: 12,
+  maxTagLength: 32,
+  /** Largest JSON request body the API reads, in bytes (a 10,000-point patch is about 0.3 MB). */
+  maxRequestBodyBytes: 2 * 1024 * 1024,
   /** Largest patch JSON file the command line reads, in bytes. */
   maxPatchFileBytes: 4 * 1024 * 1024,
 } as const;

@@ -87,3 +87,15 @@ export function modeTableRows(table: ModeTable): ModeRow[] {
   }
   return rows;
 }
+
+/** The mode table as the command line prints it and `GET /api/sessions/:id/modes` returns it. */
+export interface ModeTableReport {
+  f0Hz: Hertz;
+  waveSpeedMPerS: MetresPerSecond;
+  totalEnergyJ: Joules;
+  modes: ModeRow[];
+}
+
+export function modeTableReport(table: ModeTable): ModeTableReport {
+  return { f0Hz: table.f0Hz, waveSpeedMPerS: table.waveSpeedMPerS, totalEnergyJ: table.totalEnergyJ, modes: modeTableRows(table) };
+}

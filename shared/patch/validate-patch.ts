@@ -1,33 +1,7 @@
-import type { z } from 'zod';
 import { patchSchema, type Patch, type Polyline } from './patch-schema';
-import { fieldIssue, valueAtPath, type FieldIssue, type Validation } from './field-issue';
+import { fieldIssue, type FieldIssue, type Validation } from './field-issue';
+import { issueFromZod } from './zod-issues';
 import { fundamentalFrequencyHz } from '../engine/mode-frequencies';
-
-const typeNames: Record<string, string> = {
-  number: 'a number',
-  string: 'a string',
-  object: 'an object',
-  array: 'an array',
-  tuple: 'an array',
-  boolean: 'true or false',
-  int: 'a whole number',
-};
-
-function issueFromZod(issue: z.core.$ZodIssue, input: unknown): FieldIssue {
-  const { present, value } = valueAtPath(input, issue.path);
-  if (issue.code === 'invalid_type') {
-    if (!present || value === undefined) return fieldIssue(issue.path, 'is required', undefined, false);
-    const expected = typeNames[issue.expected] ?? issue.expected;
-    if (issue.expected === 'number' && typeof value === 'number') {
-      return fieldIssue(issue.path, 'must be a finite number', value);
-    }
-    return fieldIssue(issue.path, `must be ${expected}`, value);
-  }
-  if (issue.code === 'too_big' && issue.origin === 'array' && Array.isArray(value)) {
-    return fieldIssue(issue.path, issue.message, value);
-  }
-  return fieldIssue(issue.path, issue.message, value, present);
-}
 
 /** The rules of one polyline that tie it to the string: ends at 0 and L, x strictly increasing, zero at both ends. */
 function polylineIssues(points: Polyline, lengthM: number, path: ReadonlyArray<PropertyKey>): FieldIssue[] {

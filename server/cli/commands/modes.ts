@@ -1,4 +1,4 @@
-import { computeModeTable, modeTableRows } from '../../../shared/engine/mode-table';
+import { computeModeTable, modeTableReport } from '../../../shared/engine/mode-table';
 import { readPatchFile } from '../read-patch-file';
 import { CliError } from '../cli-error';
 
@@ -8,10 +8,5 @@ export const modesUsage = 'modes PATCH.json';
 export async function modesCommand(positionals: string[]): Promise<string> {
   if (positionals.length !== 1) throw new CliError(`usage: ${modesUsage}`);
   const patch = await readPatchFile(positionals[0]);
-  const table = computeModeTable(patch);
-  return JSON.stringify(
-    { f0Hz: table.f0Hz, waveSpeedMPerS: table.waveSpeedMPerS, totalEnergyJ: table.totalEnergyJ, modes: modeTableRows(table) },
-    null,
-    2,
-  );
+  return JSON.stringify(modeTableReport(computeModeTable(patch)), null, 2);
 }

@@ -1,0 +1,28 @@
+import type { DataSource } from 'typeorm';
+import type { Mailer } from './mail/mailer';
+import type { FakeMailbox } from './mail/fake-smtp-server';
+
+export interface ServerConfig {
+  /** Where links in e-mails point, e.g. http://localhost:3000. */
+  appUrl: string;
+  jwtSecret: string;
+  tokenLifetimeS: number;
+  /** log2 of scrypt's N. */
+  passwordHashCost: number;
+  invitationLifetimeS: number;
+  passwordResetLifetimeS: number;
+  /** Requests per window on sign-in, register and reset, per client address. */
+  authRateLimit: { windowMs: number; limit: number };
+  /** Secure cookies (HTTPS only) in production behind TLS. */
+  secureCookies: boolean;
+}
+
+/** What every route receives: the database, the settings, the mail sender and (locally) the mailbox. */
+export interface AppContext {
+  dataSource: DataSource;
+  config: ServerConfig;
+  mailer: Mailer;
+  mailbox: FakeMailbox | null;
+  clock: () => Date;
+  log: (line: string) => void;
+}

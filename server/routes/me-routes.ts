@@ -1,0 +1,71 @@
+import { Router } from 'express';
+import { changePasswordBody, deleteAccountBody, updateProfileBody } from '../../shared/api/schemas';
+import type { AppContext } from '../app-context';
+import { clearAuthCookie, currentUser, issueAuthCookie, requireUser } from '../auth/authenticate';
+import { hashPassword, verifyPassword } from '../auth/password-hash';
+import { Membership } from '../db/entities/membership';
+import { Studio } from '../db/entities/studio';
+import { User } from '../db/entities/user';
+import { ApiError, conflict } from '../http/api-error';
+import { parseInput } from '../http/parse-input';
+import { requireStrongPassword } from './auth-routes';
+import { leadCount, studiosOf } from './membership-queries';
+import { userView } from './user-view';
+
+export function meRoutes(context: AppContext): Router {
+  const router = Router();
+  const users = () => context.dataSource.getRepository(User);
+  router.use('/me', requireUser(context));
+
+  router.get('/me', async (request, response) => {
+    const user = currentUser(request);
+    response.json({ user: userView(user), studios: await studiosOf(context.dataSource, user.id) });
+  });
+
+  router.patch('/me', async (request, response) => {
+    const user = currentUser(request);
+    const { displayName } = parseInput(updateProfileBody, request.body);
+    await users().update({ id: user.id }, { displayName });
+    response.json({ user: userView({ ...user, displayName }) });
+  });
+
+  router.post('/me/password', async (request, response) => {
+    const user = currentUser(request);
+    const body = parseInput(changePasswordBody, request.body);
+    if (!(await verifyPassword(body.currentPassword, user.passwordHash))) {
+      throw new ApiError(400, 'invalid', 'currentPassword is wrong', 'currentPassword');
+    }
+    requireStrongPassword(body.newPassword, user.email, 'newPassword');
+    const updated = { ...user, passwordHash: await hashPassword(body.newPassword, context.config.passwordHashCost), tokenVersion: user.tokenVersion + 1 };
+    await users().update({ id: user.id }, { passwordHash: updated.passwordHash, tokenVersion: updated.tokenVersion });
+    // Other devices are signed out (their tokens carry the old version); this one gets a fresh cookie.
+    const token = issueAuthCookie(context, response, updated as User);
+    response.json({ ok: true, token });
+  });
+
+  router.delete('/me', async (request, response) => {
+    const user = currentUser(request);
+    const { password } = parseInput(deleteAccountBody, request.body);
+    if (!(await verifyPassword(password, user.passwordHash))) throw new ApiError(400, 'invalid', 'password is wrong', 'password');
+    await context.dataSource.transaction(async (manager) => {
+      const leads = await manager.getRepository(Membership).findBy({ userId: user.id, role: 'lead' });
+      const blocking: string[] = [];
+      const soleMemberStudios: string[] = [];
+      for (const membership of leads) {
+        if ((await leadCount(manager, membership.studioId)) > 1) continue;
+        const members = await manager.getRepository(Membership).countBy({ studioId: membership.studioId });
+        if (members > 1) blocking.push((await manager.getRepository(Studio).findOneByOrFail({ id: membership.studioId })).name);
+        else soleMemberStudios.push(membership.studioId);
+      }
+      if (blocking.length > 0) {
+        throw conflict(`You are the last lead of ${blocking.join(', ')}: make another member lead before deleting your account`);
+      }
+      for (const studioId of soleMemberStudios) await manager.delete(Studio, { id: studioId });
+      await manager.delete(User, { id: user.id });
+    });
+    clearAuthCookie(context, response);
+    response.status(204).end();
+  });
+
+  return router;
+}

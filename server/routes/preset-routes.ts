@@ -1,0 +1,162 @@
+import { Router } from 'express';
+import multer from 'multer';
+import { createPresetBody, listPresetsQuery, updatePresetBody } from '../../shared/api/schemas';
+import { LIMITS } from '../../shared/limits';
+import { fieldIssue } from '../../shared/patch/field-issue';
+import type { Patch } from '../../shared/patch/patch-schema';
+import type { AppContext } from '../app-context';
+import { requireAccess, requireMembership, requirePermission } from '../access/studio-access';
+import { currentUser, requireUser } from '../auth/authenticate';
+import { Preset } from '../db/entities/preset';
+import { Session } from '../db/entities/session';
+import { User } from '../db/entities/user';
+import { invalidFields, notFound } from '../http/api-error';
+import { parseInput, parsePatch } from '../http/parse-input';
+
+function presetView(preset: Preset, authorName: string | null, withPatch: boolean) {
+  return {
+    id: preset.id,
+    studioId: preset.studioId,
+    name: preset.name,
+    tags: preset.tags,
+    description: preset.description,
+    version: preset.version,
+    createdAt: preset.createdAt.toISOString(),
+    updatedAt: preset.updatedAt.toISOString(),
+    author: preset.createdById ? { id: preset.createdById, displayName: authorName } : null,
+    ...(withPatch ? { patch: preset.patch } : {}),
+  };
+}
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: LIMITS.maxPatchFileBytes, files: 1, fields: 10 } });
+
+/** Tags from a form field: comma-separated, trimmed, lower-cased. */
+function tagsFromForm(value: unknown): string[] {
+  return typeof value === 'string' && value.trim() !== '' ? value.split(',').map((tag) => tag.trim()).filter(Boolean) : [];
+}
+
+export function presetRoutes(context: AppContext): Router {
+  const router = Router();
+  const presets = () => context.dataSource.getRepository(Preset);
+  router.use(['/studios/:studioId/presets', '/presets'], requireUser(context));
+
+  async function authorName(id: string | null): Promise<string | null> {
+    if (!id) return null;
+    return (await context.dataSource.getRepository(User).findOne({ where: { id }, select: { id: true, displayName: true } }))?.displayName ?? null;
+  }
+
+  async function presetFor(userId: string, presetId: string) {
+    const preset = await presets().findOneBy({ id: presetId });
+    if (!preset) throw notFound('Preset');
+    const membership = await requireMembership(context.dataSource, userId, preset.studioId, 'Preset');
+    return { preset, membership };
+  }
+
+  async function savePreset(studioId: string, userId: string, fields: { name: string; tags: string[]; description?: string; patch: Patch; sourceSessionId?: string | null }) {
+    const preset = await presets().save(
+      presets().create({
+        studioId,
+        name: fields.name,
+        tags: [...new Set(fields.tags)],
+        description: fields.description ?? '',
+        patch: fields.patch,
+        version: 1,
+        createdById: userId,
+        sourceSessionId: fields.sourceSessionId ?? null,
+      }),
+    );
+    return presetView(preset, await authorName(userId), true);
+  }
+
+  router.get('/studios/:studioId/presets', async (request, response) => {
+    const membership = await requireMembership(context.dataSource, currentUser(request).id, request.params.studioId);
+    const query = parseInput(listPresetsQuery, { ...request.query });
+    const builder = presets()
+      .createQueryBuilder('p')
+      .leftJoin(User, 'u', 'u.id = p.createdById')
+      .addSelect('u.displayName', 'authorName')
+      .where('p.studioId = :studioId', { studioId: membership.studioId });
+    if (query.q) builder.andWhere("(p.name LIKE :q ESCAPE '\\' OR p.description LIKE :q ESCAPE '\\')", { q: `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+    if (query.tag) builder.andWhere('EXISTS (SELECT 1 FROM json_each(p.tags) WHERE json_each.value = :tag)', { tag: query.tag });
+    const order = { name: ['p.name', 'ASC'], date: ['p.updatedAt', 'DESC'], author: ['authorName', 'ASC'] } as const;
+    builder.orderBy(order[query.sort][0], order[query.sort][1]).addOrderBy('p.name', 'ASC');
+    const { entities, raw } = await builder.getRawAndEntities<{ authorName: string | null }>();
+    response.json({ presets: entities.map((preset, index) => presetView(preset, raw[index]?.authorName ?? null, false)) });
+  });
+
+  router.post('/studios/:studioId/presets', async (request, response) => {
+    const user = currentUser(request);
+    const membership = await requireAccess(context.dataSource, user.id, request.params.studioId, 'managePresets');
+    const body = parseInput(createPresetBody, request.body);
+    let patch: Patch;
+    let sourceSessionId: string | null = null;
+    if (body.sessionId) {
+      const session = await context.dataSource.getRepository(Session).findOneBy({ id: body.sessionId, studioId: membership.studioId });
+      if (!session) throw notFound('Session');
+      patch = parsePatch(session.patch);
+      sourceSessionId = session.id;
+    } else {
+      patch = parsePatch(body.patch);
+    }
+    response.status(201).json({ preset: await savePreset(membership.studioId, user.id, { ...body, patch: { ...patch, name: body.name }, sourceSessionId }) });
+  });
+
+  router.post('/studios/:studioId/presets/upload', async (request, response) => {
+    const user = currentUser(request);
+    const membership = await requireAccess(context.dataSource, user.id, request.params.studioId, 'managePresets');
+    await new Promise<void>((resolve, reject) => upload.single('file')(request, response, (error: unknown) => (error ? reject(error) : resolve())));
+    const file = request.file;
+    if (!file) throw invalidFields([fieldIssue(['file'], 'is required: attach a patch JSON file', undefined, false)]);
+    let json: unknown;
+    try {
+      json = JSON.parse(file.buffer.toString('utf8'));
+    } catch (error) {
+      throw invalidFields([fieldIssue(['file'], `${file.originalname} is not valid JSON: ${(error as Error).message}`, undefined, false)]);
+    }
+    const patch = parsePatch(json, 'file');
+    const fields = parseInput(createPresetBody, {
+      name: typeof request.body?.name === 'string' && request.body.name.trim() !== '' ? request.body.name : patch.name,
+      tags: tagsFromForm(request.body?.tags),
+      description: typeof (json as { description?: unknown }).description === 'string' ? (json as { description: string }).description.slice(0, 500) : undefined,
+      patch,
+    });
+    response.status(201).json({ preset: await savePreset(membership.studioId, user.id, { ...fields, patch: { ...patch, name: fields.name } }) });
+  });
+
+  router.get('/presets/:id', async (request, response) => {
+    const { preset } = await presetFor(currentUser(request).id, request.params.id);
+    response.json({ preset: presetView(preset, await authorName(preset.createdById), true) });
+  });
+
+  router.get('/presets/:id/download', async (request, response) => {
+    const { preset } = await presetFor(currentUser(request).id, request.params.id);
+    const fileName = `${preset.name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '') || 'preset'}.json`;
+    response.attachment(fileName);
+    response.type('application/json').send(`${JSON.stringify({ ...preset.patch, tags: preset.tags, description: preset.description }, null, 2)}\n`);
+  });
+
+  router.patch('/presets/:id', async (request, response) => {
+    const { preset, membership } = await presetFor(currentUser(request).id, request.params.id);
+    requirePermission(membership, 'managePresets');
+    const body = parseInput(updatePresetBody, request.body);
+    const patch = body.patch !== undefined ? parsePatch(body.patch) : undefined;
+    const name = body.name ?? preset.name;
+    preset.name = name;
+    if (body.tags) preset.tags = [...new Set(body.tags)];
+    if (body.description !== undefined) preset.description = body.description;
+    if (patch) preset.version += 1;
+    preset.patch = { ...(patch ?? preset.patch), name };
+    await presets().save(preset);
+    const updated = await presets().findOneByOrFail({ id: preset.id });
+    response.json({ preset: presetView(updated, await authorName(updated.createdById), true) });
+  });
+
+  router.delete('/presets/:id', async (request, response) => {
+    const { preset, membership } = await presetFor(currentUser(request).id, request.params.id);
+    requirePermission(membership, 'managePresets');
+    await presets().delete({ id: preset.id });
+    response.status(204).end();
+  });
+
+  return router;
+}

@@ -1,0 +1,90 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { DataSource } from 'typeorm';
+import type { Role } from '../../shared/access/roles';
+import { validatePatch } from '../../shared/patch/validate-patch';
+import type { Patch } from '../../shared/patch/patch-schema';
+import { hashPassword } from '../auth/password-hash';
+import { Membership } from '../db/entities/membership';
+import { Preset } from '../db/entities/preset';
+import { Session } from '../db/entities/session';
+import { Studio } from '../db/entities/studio';
+import { User } from '../db/entities/user';
+
+export const PRESETS_DIR = fileURLToPath(new URL('../../presets/', import.meta.url));
+
+/** Demo-only password of the seeded accounts; printed on start and listed in the README. */
+export const DEMO_PASSWORD = 'saltglass-demo';
+
+/** The invented studio behind the demo, and one account per role. */
+export const DEMO_STUDIO = { name: 'Kestrel Lantern Audio', slug: 'kestrel-lantern-audio' };
+export const DEMO_ACCOUNTS: ReadonlyArray<{ email: string; displayName: string; role: Role }> = [
+  { email: 'wren@kestrel-lantern.example', displayName: 'Wren Halloway', role: 'lead' },
+  { email: 'tamsin@kestrel-lantern.example', displayName: 'Tamsin Okafor', role: 'designer' },
+  { email: 'joaquin@kestrel-lantern.example', displayName: 'Joaquín Reyes', role: 'producer' },
+  { email: 'pell@kestrel-lantern.example', displayName: 'Pell Ashby', role: 'listener' },
+];
+
+export interface FactoryPreset {
+  file: string;
+  patch: Patch;
+  tags: string[];
+  description: string;
+}
+
+/** Reads and validates every factory preset in presets/. */
+export function readFactoryPresets(dir = PRESETS_DIR): FactoryPreset[] {
+  return readdirSync(dir)
+    .filter((file) => file.endsWith('.json'))
+    .sort()
+    .map((file) => {
+      const json = JSON.parse(readFileSync(join(dir, file), 'utf8')) as { tags?: unknown; description?: unknown };
+      const result = validatePatch(json);
+      if (!result.ok) throw new Error(`presets/${file}: ${result.issues[0].message}`);
+      return {
+        file,
+        patch: result.value,
+        tags: Array.isArray(json.tags) ? json.tags.filter((tag): tag is string => typeof tag === 'string') : [],
+        description: typeof json.description === 'string' ? json.description : '',
+      };
+    });
+}
+
+/**
+ * Seeds the demo on a database that has no users yet: the studio, one account per role, the
+ * factory presets, and two sessions started from presets. Returns false (and changes nothing)
+ * when the database already has users.
+ */
+export async function seedDemo(dataSource: DataSource, passwordHashCost: number): Promise<boolean> {
+  if ((await dataSource.getRepository(User).count()) > 0) return false;
+  const passwordHash = await hashPassword(DEMO_PASSWORD, passwordHashCost);
+  const presets = readFactoryPresets();
+  await dataSource.transaction(async (manager) => {
+    if ((await manager.getRepository(User).count()) > 0) return;
+    const studio = await manager.save(Studio, manager.create(Studio, DEMO_STUDIO));
+    const users: User[] = [];
+    for (const account of DEMO_ACCOUNTS) {
+      const user = await manager.save(User, manager.create(User, { email: account.email, displayName: account.displayName, passwordHash }));
+      await manager.save(Membership, manager.create(Membership, { userId: user.id, studioId: studio.id, role: account.role }));
+      users.push(user);
+    }
+    const [lead, designer] = users;
+    for (const preset of presets) {
+      await manager.save(
+        Preset,
+        manager.create(Preset, { studioId: studio.id, name: preset.patch.name, tags: preset.tags, description: preset.description, patch: preset.patch, version: 1, createdById: lead.id }),
+      );
+    }
+    const byFile = new Map(presets.map((preset) => [preset.file, preset.patch]));
+    const sessions: Array<[string, string, User]> = [
+      ['Lighthouse stair climb', 'lantern-room-harp.json', designer],
+      ['Storm-surge chase pulse', 'breakwater-bass.json', lead],
+    ];
+    for (const [name, file, author] of sessions) {
+      const patch = byFile.get(file) ?? presets[0].patch;
+      await manager.save(Session, manager.create(Session, { studioId: studio.id, name, patch: { ...patch, name }, createdById: author.id, updatedById: author.id, archived: false, docState: null }));
+    }
+  });
+  return true;
+}
