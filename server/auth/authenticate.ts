@@ -54,6 +54,7 @@ export async function userFromRequest(context: AppContext, request: Request): Pr
  */
 export function requireUser(context: AppContext): RequestHandler {
   return async (request, response, next) => {
+    if (request.user) return next(); // already checked by an earlier router on this request
     const found = await userFromRequest(context, request);
     if (!found) throw unauthenticated('Sign in first: the session is missing, expired or invalid');
     request.user = found.user;
