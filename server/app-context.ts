@@ -1,6 +1,7 @@
 import type { DataSource } from 'typeorm';
 import type { Mailer } from './mail/mailer';
 import type { FakeMailbox } from './mail/fake-smtp-server';
+import type { CollabHub } from './collab/collab-hub';
 
 export interface ServerConfig {
   /** Where links in e-mails point, e.g. http://localhost:3000. */
@@ -25,4 +26,6 @@ export interface AppContext {
   mailbox: FakeMailbox | null;
   clock: () => Date;
   log: (line: string) => void;
+  /** The live documents, when the HTTP server runs the collaboration endpoint. */
+  collab?: CollabHub;
 }

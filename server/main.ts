@@ -1,11 +1,11 @@
-import { createServer, type Server } from 'node:http';
-import { createApp } from './app';
+import type { Server } from 'node:http';
 import type { AppContext } from './app-context';
 import { CLIENT_DIST_DIR, databasePath, loadServerConfig, serverPort } from './config';
 import { openDatabase } from './db/data-source';
 import { startFakeSmtpServer } from './mail/fake-smtp-server';
 import { createSmtpMailer } from './mail/mailer';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from './seed/demo-seed';
+import { createTautlineServer } from './http-server';
 
 const MAIL_FROM = 'Tautline <no-reply@tautline.local>';
 
@@ -30,12 +30,13 @@ export async function startServer(options: { serveClient: boolean }): Promise<{ 
   if (mailbox) log(`No SMTP_URL: e-mail goes to the local mailbox at ${config.appUrl}/dev/mailbox`);
 
   const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(), log };
-  const server = createServer(createApp(context, { clientDistDir: options.serveClient ? CLIENT_DIST_DIR : undefined }));
-  await new Promise<void>((resolve) => server.listen(port, resolve));
-  log(`Tautline is listening on ${config.appUrl}`);
+  const tautline = createTautlineServer(context, { clientDistDir: options.serveClient ? CLIENT_DIST_DIR : undefined });
+  const server = tautline.server;
+  const boundPort = await tautline.listen(port);
+  log(`Tautline is listening on http://localhost:${boundPort}`);
 
   const close = async () => {
-    await new Promise<void>((resolve) => server.close(() => resolve()));
+    await tautline.close();
     mailer.close();
     await mailbox?.close();
     await dataSource.destroy();

@@ -27,6 +27,13 @@ export const LIMITS = {
   maxTagLength: 32,
   /** Largest JSON request body the API reads, in bytes (a 10,000-point patch is about 0.3 MB). */
   maxRequestBodyBytes: 2 * 1024 * 1024,
+  /** The live preview the server sends while people edit: at most this long and this fast. */
+  previewMaxDurationS: 4,
+  previewMaxSampleRateHz: 48000,
+  /** Fewest milliseconds between two compute results sent to one session (one per display frame). */
+  computeMinIntervalMs: 16,
+  /** Largest websocket message the collaboration endpoint accepts, in bytes. */
+  maxCollabMessageBytes: 4 * 1024 * 1024,
   /** Largest patch JSON file the command line reads, in bytes. */
   maxPatchFileBytes: 4 * 1024 * 1024,
 } as const;

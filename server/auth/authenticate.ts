@@ -37,15 +37,31 @@ function tokenFrom(request: Request): { token: string; fromCookie: boolean } | n
   return cookie ? { token: cookie, fromCookie: true } : null;
 }
 
+/** The user a token belongs to, or null (bad signature, expired, revoked by a password change, user gone). */
+export async function userFromToken(context: AppContext, token: string): Promise<{ user: User; issuedAtS: number } | null> {
+  const claims = verifyAuthToken(token, context.config.jwtSecret);
+  if (!claims) return null;
+  const user = await context.dataSource.getRepository(User).findOneBy({ id: claims.sub });
+  if (!user || user.tokenVersion !== claims.ver) return null;
+  return { user, issuedAtS: claims.iat };
+}
+
+/** The token in a raw Cookie header (websocket upgrades and socket.io handshakes). */
+export function tokenFromCookieHeader(header: string | undefined): string | null {
+  if (!header) return null;
+  for (const part of header.split(';')) {
+    const [name, ...value] = part.trim().split('=');
+    if (name === AUTH_COOKIE) return decodeURIComponent(value.join('='));
+  }
+  return null;
+}
+
 /** The user a request's token belongs to, or null (no token, bad signature, expired, revoked). */
 export async function userFromRequest(context: AppContext, request: Request): Promise<{ user: User; issuedAtS: number; fromCookie: boolean } | null> {
   const found = tokenFrom(request);
   if (!found) return null;
-  const claims = verifyAuthToken(found.token, context.config.jwtSecret);
-  if (!claims) return null;
-  const user = await context.dataSource.getRepository(User).findOneBy({ id: claims.sub });
-  if (!user || user.tokenVersion !== claims.ver) return null;
-  return { user, issuedAtS: claims.iat, fromCookie: found.fromCookie };
+  const result = await userFromToken(context, found.token);
+  return result ? { ...result, fromCookie: found.fromCookie } : null;
 }
 
 /**

@@ -30,6 +30,17 @@ function presetView(preset: Preset, authorName: string | null, withPatch: boolea
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: LIMITS.maxPatchFileBytes, files: 1, fields: 10 } });
 
+/** A patch file may carry the preset's own fields (a downloaded preset does); they belong to the preset, not the patch. */
+function withoutPresetFields(patch: Patch): { patch: Patch; tags?: unknown; description?: unknown } {
+  const { tags, description, ...rest } = patch as Patch & { tags?: unknown; description?: unknown };
+  return { patch: rest as Patch, tags, description };
+}
+
+/** File names keep letters and digits of any script; everything else becomes a hyphen. */
+function downloadFileName(name: string): string {
+  return `${name.normalize('NFC').replace(/[^\p{L}\p{N}._-]+/gu, '-').replace(/^-+|-+$/g, '') || 'preset'}.json`;
+}
+
 /** Tags from a form field: comma-separated, trimmed, lower-cased. */
 function tagsFromForm(value: unknown): string[] {
   return typeof value === 'string' && value.trim() !== '' ? value.split(',').map((tag) => tag.trim()).filter(Boolean) : [];
@@ -70,7 +81,8 @@ export function presetRoutes(context: AppContext): Router {
 
   router.get('/studios/:studioId/presets', async (request, response) => {
     const membership = await requireMembership(context.dataSource, currentUser(request).id, request.params.studioId);
-    const query = parseInput(listPresetsQuery, { ...request.query });
+    // An empty query parameter means "not given" (forms send them).
+    const query = parseInput(listPresetsQuery, Object.fromEntries(Object.entries(request.query).filter(([, value]) => value !== '')));
     const builder = presets()
       .createQueryBuilder('p')
       .leftJoin(User, 'u', 'u.id = p.createdById')
@@ -96,7 +108,7 @@ export function presetRoutes(context: AppContext): Router {
       patch = parsePatch(session.patch);
       sourceSessionId = session.id;
     } else {
-      patch = parsePatch(body.patch);
+      patch = withoutPresetFields(parsePatch(body.patch)).patch;
     }
     response.status(201).json({ preset: await savePreset(membership.studioId, user.id, { ...body, patch: { ...patch, name: body.name }, sourceSessionId }) });
   });
@@ -113,11 +125,13 @@ export function presetRoutes(context: AppContext): Router {
     } catch (error) {
       throw invalidFields([fieldIssue(['file'], `${file.originalname} is not valid JSON: ${(error as Error).message}`, undefined, false)]);
     }
-    const patch = parsePatch(json, 'file');
+    const { patch, tags: fileTags, description: fileDescription } = withoutPresetFields(parsePatch(json, 'file'));
+    const formName = typeof request.body?.name === 'string' && request.body.name.trim() !== '' ? request.body.name : undefined;
+    const formTags = typeof request.body?.tags === 'string' ? tagsFromForm(request.body.tags) : undefined;
     const fields = parseInput(createPresetBody, {
-      name: typeof request.body?.name === 'string' && request.body.name.trim() !== '' ? request.body.name : patch.name,
-      tags: tagsFromForm(request.body?.tags),
-      description: typeof (json as { description?: unknown }).description === 'string' ? (json as { description: string }).description.slice(0, 500) : undefined,
+      name: formName ?? patch.name.slice(0, LIMITS.maxLabelLength),
+      tags: formTags ?? (Array.isArray(fileTags) ? fileTags.filter((tag): tag is string => typeof tag === 'string') : []),
+      description: typeof fileDescription === 'string' ? fileDescription.slice(0, 500) : undefined,
       patch,
     });
     response.status(201).json({ preset: await savePreset(membership.studioId, user.id, { ...fields, patch: { ...patch, name: fields.name } }) });
@@ -130,8 +144,7 @@ export function presetRoutes(context: AppContext): Router {
 
   router.get('/presets/:id/download', async (request, response) => {
     const { preset } = await presetFor(currentUser(request).id, request.params.id);
-    const fileName = `${preset.name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '') || 'preset'}.json`;
-    response.attachment(fileName);
+    response.attachment(downloadFileName(preset.name));
     response.type('application/json').send(`${JSON.stringify({ ...preset.patch, tags: preset.tags, description: preset.description }, null, 2)}\n`);
   });
 
@@ -139,13 +152,15 @@ export function presetRoutes(context: AppContext): Router {
     const { preset, membership } = await presetFor(currentUser(request).id, request.params.id);
     requirePermission(membership, 'managePresets');
     const body = parseInput(updatePresetBody, request.body);
-    const patch = body.patch !== undefined ? parsePatch(body.patch) : undefined;
+    const patch = body.patch !== undefined ? withoutPresetFields(parsePatch(body.patch)).patch : undefined;
     const name = body.name ?? preset.name;
     preset.name = name;
     if (body.tags) preset.tags = [...new Set(body.tags)];
     if (body.description !== undefined) preset.description = body.description;
-    if (patch) preset.version += 1;
-    preset.patch = { ...(patch ?? preset.patch), name };
+    const nextPatch = { ...(patch ?? preset.patch), name };
+    // The version counts changes of the sound, not of the label: compare without the name.
+    if (patch && JSON.stringify({ ...patch, name: '' }) !== JSON.stringify({ ...preset.patch, name: '' })) preset.version += 1;
+    preset.patch = nextPatch;
     await presets().save(preset);
     const updated = await presets().findOneByOrFail({ id: preset.id });
     response.json({ preset: presetView(updated, await authorName(updated.createdById), true) });

@@ -11,6 +11,7 @@ import { Session } from '../db/entities/session';
 import { User } from '../db/entities/user';
 import { notFound } from '../http/api-error';
 import { parseInput, parsePatch } from '../http/parse-input';
+import { replaceSessionPatch } from '../collab/replace-session-patch';
 
 function sessionSummary(session: Session, names: Map<string, string>) {
   return {
@@ -99,11 +100,14 @@ export function sessionRoutes(context: AppContext): Router {
     requirePermission(membership, 'editSessions');
     const body = parseInput(updateSessionBody, request.body);
     const patch = body.patch !== undefined ? parsePatch(body.patch) : undefined;
-    if (body.name !== undefined) session.name = body.name;
-    if (patch) session.patch = patch;
-    if (body.archived !== undefined) session.archived = body.archived;
-    session.updatedById = user.id;
-    response.json({ session: await view(await sessions().save(session), true) });
+    if (body.name !== undefined || body.archived !== undefined) {
+      await sessions().update(
+        { id: session.id },
+        { ...(body.name !== undefined ? { name: body.name } : {}), ...(body.archived !== undefined ? { archived: body.archived } : {}), updatedById: user.id, updatedAt: new Date() },
+      );
+    }
+    if (patch) await replaceSessionPatch(context, session.id, patch, user.id);
+    response.json({ session: await view(await sessions().findOneByOrFail({ id: session.id }), true) });
   });
 
   router.post('/sessions/:id/load-preset', async (request, response) => {
@@ -113,10 +117,8 @@ export function sessionRoutes(context: AppContext): Router {
     const { presetId } = parseInput(loadPresetBody, request.body);
     const preset = await presetOfStudio(session.studioId, presetId);
     // The session gets its own copy: later edits to either never reach the other.
-    session.patch = structuredClone(preset.patch);
-    session.updatedById = user.id;
-    session.docState = null;
-    response.json({ session: await view(await sessions().save(session), true) });
+    await replaceSessionPatch(context, session.id, structuredClone(preset.patch), user.id);
+    response.json({ session: await view(await sessions().findOneByOrFail({ id: session.id }), true) });
   });
 
   router.delete('/sessions/:id', async (request, response) => {

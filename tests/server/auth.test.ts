@@ -65,7 +65,7 @@ describe('register and sign in', () => {
       [{ email: 'not-an-address', password: TEST_PASSWORD, displayName: 'N' }, 'email'],
       [{ email: 'n@saltglass.example', password: 12345678901, displayName: 'N' }, 'password'],
       [{ email: 'n@saltglass.example', password: TEST_PASSWORD }, 'displayName'],
-      [[1, 2, 3], '(patch)'],
+      [[1, 2, 3], 'body'],
     ];
     for (const [body, field] of cases) {
       const response = await request(server.app).post('/api/auth/register').send(body as object);

@@ -6,6 +6,7 @@ import request from 'supertest';
 import type { Express } from 'express';
 import type { DataSource } from 'typeorm';
 import { createApp } from '../../server/app';
+import { createTautlineServer, type TautlineServer } from '../../server/http-server';
 import type { AppContext, ServerConfig } from '../../server/app-context';
 import { openDatabase } from '../../server/db/data-source';
 import { startFakeSmtpServer, type FakeMailbox } from '../../server/mail/fake-smtp-server';
@@ -22,13 +23,18 @@ export interface TestServer {
   close(): Promise<void>;
 }
 
+export interface LiveTestServer extends TestServer {
+  tautline: TautlineServer;
+  baseUrl: string;
+}
+
 /**
  * The real app on a temporary SQLite file, with the real fake SMTP server: nothing mocked. scrypt
  * runs at a lower cost (2^10) than production (2^15) so the suite stays quick.
  */
-export async function startTestServer(overrides: Partial<ServerConfig> = {}): Promise<TestServer> {
+export async function startTestServer(overrides: Partial<ServerConfig> = {}, databasePathGiven?: string): Promise<TestServer> {
   const dir = mkdtempSync(join(tmpdir(), 'tautline-server-'));
-  const databasePath = join(dir, 'test.sqlite');
+  const databasePath = databasePathGiven ?? join(dir, 'test.sqlite');
   const dataSource = await openDatabase(databasePath);
   const mailbox = await startFakeSmtpServer();
   const mailer = createSmtpMailer(mailbox.smtpUrl, 'Tautline <no-reply@tautline.test>');
@@ -59,6 +65,25 @@ export async function startTestServer(overrides: Partial<ServerConfig> = {}): Pr
       await mailbox.close();
       await dataSource.destroy();
       rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+/**
+ * The whole server listening on a loopback port: the REST API, the Yjs endpoint under /collab/
+ * and the socket.io compute channel, over real sockets. Pass a database path to restart on it.
+ */
+export async function startLiveTestServer(options: { databasePath?: string; previewDurationS?: number; jwtSecret?: string } = {}): Promise<LiveTestServer> {
+  const base = await startTestServer(options.jwtSecret ? { jwtSecret: options.jwtSecret } : {}, options.databasePath);
+  const tautline = createTautlineServer(base.context, { previewDurationS: options.previewDurationS ?? 0.5 });
+  const port = await tautline.listen(0);
+  return {
+    ...base,
+    tautline,
+    baseUrl: `http://127.0.0.1:${port}`,
+    close: async () => {
+      await tautline.close();
+      await base.close();
     },
   };
 }

@@ -1,0 +1,230 @@
+import { EventEmitter } from 'node:events';
+import * as decoding from 'lib0/decoding';
+import * as encoding from 'lib0/encoding';
+import type { WebSocket } from 'ws';
+import * as awarenessProtocol from 'y-protocols/awareness';
+import * as authProtocol from 'y-protocols/auth';
+import * as syncProtocol from 'y-protocols/sync';
+import * as Y from 'yjs';
+import { writePatchToDoc, validatedPatchFromDoc } from '../../shared/collab/patch-doc';
+import type { Patch } from '../../shared/patch/patch-schema';
+import type { CollabStorage } from './collab-storage';
+
+/** y-websocket's message types. */
+const MESSAGE_SYNC = 0;
+const MESSAGE_AWARENESS = 1;
+const MESSAGE_AUTH = 2;
+const MESSAGE_QUERY_AWARENESS = 3;
+
+/** Origin of updates the room applies itself (loading, REST edits); they are never echoed as user edits. */
+export const STORAGE_ORIGIN = Symbol('storage');
+export const SERVER_ORIGIN = Symbol('server');
+
+const FLUSH_MS = 20;
+const PATCH_REFRESH_MS = 200;
+const COMPACT_EVERY_UPDATES = 500;
+
+export interface Connection {
+  socket: WebSocket;
+  userId: string;
+  readOnly: boolean;
+  /** Awareness client ids this connection introduced, removed when it closes. */
+  awarenessIds: Set<number>;
+  toldReadOnly: boolean;
+}
+
+/**
+ * One session's live document: its connections, presence, and persistence. Every update is queued
+ * for the database before it is broadcast, and written within FLUSH_MS; the session's patch JSON is
+ * refreshed shortly after each change. Emits `change` (the last writer's user id) after each edit.
+ */
+export class CollabRoom extends EventEmitter {
+  readonly doc = new Y.Doc({ gc: true });
+  readonly awareness = new awarenessProtocol.Awareness(this.doc);
+  readonly connections = new Set<Connection>();
+  readonly ready: Promise<void>;
+  private pending: Uint8Array[] = [];
+  private flushTimer: NodeJS.Timeout | null = null;
+  private writes: Promise<unknown> = Promise.resolve();
+  private lastUpdateId = 0;
+  private updatesSinceCompact = 0;
+  private patchTimer: NodeJS.Timeout | null = null;
+  private lastWriter: string | null = null;
+  private closed = false;
+
+  constructor(
+    readonly sessionId: string,
+    private readonly storage: CollabStorage,
+    private readonly log: (line: string) => void,
+  ) {
+    super();
+    this.awareness.setLocalState(null); // the server has no presence of its own
+    this.ready = this.load();
+    this.doc.on('update', (update: Uint8Array, origin: unknown) => this.onUpdate(update, origin));
+    this.awareness.on('update', ({ added, updated, removed }: { added: number[]; updated: number[]; removed: number[] }, origin: unknown) => {
+      const changed = [...added, ...updated, ...removed];
+      const connection = origin as Connection | null;
+      if (connection && this.connections.has(connection)) {
+        for (const id of added) connection.awarenessIds.add(id);
+        for (const id of removed) connection.awarenessIds.delete(id);
+      }
+      const encoder = encoding.createEncoder();
+      encoding.writeVarUint(encoder, MESSAGE_AWARENESS);
+      encoding.writeVarUint8Array(encoder, awarenessProtocol.encodeAwarenessUpdate(this.awareness, changed));
+      this.broadcast(encoding.toUint8Array(encoder), null);
+    });
+  }
+
+  private async load(): Promise<void> {
+    const stored = await this.storage.load(this.sessionId);
+    if (!stored) throw new Error(`session ${this.sessionId} is gone`);
+    this.lastUpdateId = stored.lastUpdateId;
+    const updates = [...(stored.snapshot ? [stored.snapshot] : []), ...stored.updates];
+    if (updates.length > 0) {
+      this.doc.transact(() => {
+        for (const update of updates) Y.applyUpdate(this.doc, update, STORAGE_ORIGIN);
+      }, STORAGE_ORIGIN);
+    } else {
+      // First time live: the document starts from the session's patch, written once and stored.
+      writePatchToDoc(this.doc, stored.patch, SERVER_ORIGIN);
+    }
+  }
+
+  private onUpdate(update: Uint8Array, origin: unknown): void {
+    if (origin === STORAGE_ORIGIN) return;
+    // Persist first, then broadcast: the update is queued for the database before anyone sees it.
+    this.pending.push(update);
+    this.flushTimer ??= setTimeout(() => void this.flush(), FLUSH_MS);
+    const encoder = encoding.createEncoder();
+    encoding.writeVarUint(encoder, MESSAGE_SYNC);
+    syncProtocol.writeUpdate(encoder, update);
+    this.broadcast(encoding.toUint8Array(encoder), origin as Connection | null);
+    const writer = (origin as Connection | null)?.userId ?? null;
+    if (writer) this.lastWriter = writer;
+    this.patchTimer ??= setTimeout(() => void this.refreshPatch(), PATCH_REFRESH_MS);
+    this.emit('change', writer);
+  }
+
+  /** Writes queued updates in one transaction; writes run one after another, in order. */
+  flush(): Promise<unknown> {
+    if (this.flushTimer) clearTimeout(this.flushTimer);
+    this.flushTimer = null;
+    const batch = this.pending;
+    this.pending = [];
+    if (batch.length > 0) {
+      this.writes = this.writes
+        .then(() => this.storage.append(this.sessionId, batch))
+        .then((lastId) => {
+          this.lastUpdateId = lastId;
+          this.updatesSinceCompact += batch.length;
+          if (this.updatesSinceCompact >= COMPACT_EVERY_UPDATES) return this.compactNow();
+        })
+        .catch((error: Error) => this.log(`collab: could not store updates of session ${this.sessionId}: ${error.message}`));
+    }
+    return this.writes;
+  }
+
+  private compactNow(): Promise<void> {
+    this.updatesSinceCompact = 0;
+    return this.storage.compact(this.sessionId, Y.encodeStateAsUpdate(this.doc), this.lastUpdateId);
+  }
+
+  /** Folds the log into one snapshot (after everything queued is written). */
+  async compact(): Promise<void> {
+    await this.flush();
+    this.writes = this.writes.then(() => this.compactNow());
+    await this.writes;
+  }
+
+  private async refreshPatch(): Promise<void> {
+    this.patchTimer = null;
+    const result = validatedPatchFromDoc(this.doc);
+    if (!result.ok) return;
+    await this.storage.savePatch(this.sessionId, result.value, this.lastWriter).catch((error: Error) => this.log(`collab: could not refresh patch: ${error.message}`));
+  }
+
+  /** Replaces the whole document content with a patch (REST edits, a preset loaded). */
+  replacePatch(patch: Patch, userId: string): void {
+    this.lastWriter = userId;
+    writePatchToDoc(this.doc, patch, SERVER_ORIGIN);
+  }
+
+  private broadcast(message: Uint8Array, except: Connection | null): void {
+    for (const connection of this.connections) if (connection !== except) this.send(connection, message);
+  }
+
+  send(connection: Connection, message: Uint8Array): void {
+    if (connection.socket.readyState !== connection.socket.OPEN) return;
+    connection.socket.send(message, (error) => {
+      if (error) this.removeConnection(connection);
+    });
+  }
+
+  /** Starts a connection's sync: sync step 1 from the server, and everyone's presence. */
+  addConnection(connection: Connection): void {
+    this.connections.add(connection);
+    const encoder = encoding.createEncoder();
+    encoding.writeVarUint(encoder, MESSAGE_SYNC);
+    syncProtocol.writeSyncStep1(encoder, this.doc);
+    this.send(connection, encoding.toUint8Array(encoder));
+    const states = [...this.awareness.getStates().keys()];
+    if (states.length > 0) {
+      const awarenessEncoder = encoding.createEncoder();
+      encoding.writeVarUint(awarenessEncoder, MESSAGE_AWARENESS);
+      encoding.writeVarUint8Array(awarenessEncoder, awarenessProtocol.encodeAwarenessUpdate(this.awareness, states));
+      this.send(connection, encoding.toUint8Array(awarenessEncoder));
+    }
+  }
+
+  /**
+   * Handles one y-websocket message. Writers' updates are applied; a read-only connection's
+   * document writes (sync step 2 and updates) are dropped and it is told once that it is read-only.
+   * Sync step 1 and presence are always answered.
+   */
+  handleMessage(connection: Connection, data: Uint8Array): void {
+    const decoder = decoding.createDecoder(data);
+    const encoder = encoding.createEncoder();
+    const type = decoding.readVarUint(decoder);
+    if (type === MESSAGE_SYNC) {
+      const subtype = decoding.peekVarUint(decoder);
+      if (subtype !== syncProtocol.messageYjsSyncStep1 && connection.readOnly) {
+        if (!connection.toldReadOnly) {
+          connection.toldReadOnly = true;
+          const denied = encoding.createEncoder();
+          encoding.writeVarUint(denied, MESSAGE_AUTH);
+          authProtocol.writePermissionDenied(denied, 'read-only: your role may view this session but not edit it');
+          this.send(connection, encoding.toUint8Array(denied));
+        }
+        return;
+      }
+      encoding.writeVarUint(encoder, MESSAGE_SYNC);
+      syncProtocol.readSyncMessage(decoder, encoder, this.doc, connection);
+      if (encoding.length(encoder) > 1) this.send(connection, encoding.toUint8Array(encoder));
+    } else if (type === MESSAGE_AWARENESS) {
+      awarenessProtocol.applyAwarenessUpdate(this.awareness, decoding.readVarUint8Array(decoder), connection);
+    } else if (type === MESSAGE_QUERY_AWARENESS) {
+      encoding.writeVarUint(encoder, MESSAGE_AWARENESS);
+      encoding.writeVarUint8Array(encoder, awarenessProtocol.encodeAwarenessUpdate(this.awareness, [...this.awareness.getStates().keys()]));
+      this.send(connection, encoding.toUint8Array(encoder));
+    }
+  }
+
+  removeConnection(connection: Connection): void {
+    if (!this.connections.delete(connection)) return;
+    awarenessProtocol.removeAwarenessStates(this.awareness, [...connection.awarenessIds], null);
+    if (connection.socket.readyState === connection.socket.OPEN) connection.socket.close();
+    if (this.connections.size === 0) this.emit('empty');
+  }
+
+  /** Writes everything, refreshes the patch, folds the log into the snapshot and frees the document. */
+  async close(): Promise<void> {
+    if (this.closed) return;
+    this.closed = true;
+    if (this.patchTimer) clearTimeout(this.patchTimer);
+    await this.ready.catch(() => undefined);
+    await this.refreshPatch();
+    await this.compact();
+    this.awareness.destroy();
+    this.doc.destroy();
+  }
+}

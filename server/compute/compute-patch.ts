@@ -1,0 +1,53 @@
+import { samplePeak } from '../../shared/audio/peak';
+import { computeModeTable } from '../../shared/engine/mode-table';
+import { previewPatch } from '../../shared/engine/preview-patch';
+import { renderBank } from '../../shared/engine/render-bank';
+import { buildOscillatorBank } from '../../shared/engine/oscillator-bank';
+import { renderSampleCount } from '../../shared/engine/render-patch';
+import type { Patch } from '../../shared/patch/patch-schema';
+
+export interface ComputeOutput {
+  f0Hz: number;
+  waveSpeedMPerS: number;
+  totalEnergyJ: number;
+  modeCount: number;
+  frequencyHz: Float64Array;
+  aM: Float64Array;
+  vMPerS: Float64Array;
+  energyJ: Float64Array;
+  decayRatePerS: Float64Array;
+  previewSampleRateHz: number;
+  preview: Float32Array;
+  previewPhysicalPeak: number;
+  computeMs: number;
+}
+
+/** The mode table of the patch itself (as the CLI prints it) and a bounded preview, peak-normalised to ±1. */
+export function computePatch(patch: Patch, previewDurationS: number): ComputeOutput {
+  const started = performance.now();
+  const table = computeModeTable(patch);
+  const preview = previewPatch(patch, previewDurationS);
+  const previewTable = preview.render.sampleRateHz === patch.render.sampleRateHz ? table : computeModeTable(preview);
+  const bank = buildOscillatorBank(preview, previewTable, renderSampleCount(preview));
+  const samples = new Float64Array(bank.sampleCount);
+  renderBank(bank, samples);
+  const peak = samplePeak(samples);
+  const normalized = new Float32Array(samples.length);
+  const gain = peak > 0 ? 1 / peak : 0;
+  for (let i = 0; i < samples.length; i++) normalized[i] = samples[i] * gain;
+  return {
+    f0Hz: table.f0Hz,
+    waveSpeedMPerS: table.waveSpeedMPerS,
+    totalEnergyJ: table.totalEnergyJ,
+    modeCount: table.count,
+    frequencyHz: table.frequencyHz,
+    aM: table.aM,
+    vMPerS: table.vMPerS,
+    energyJ: table.energyJ,
+    decayRatePerS: table.decayRatePerS,
+    previewSampleRateHz: preview.render.sampleRateHz,
+    preview: normalized,
+    previewPhysicalPeak: peak,
+    computeMs: performance.now() - started,
+  };
+}

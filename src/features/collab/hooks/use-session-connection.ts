@@ -1,0 +1,21 @@
+import { useEffect, useState, useSyncExternalStore } from 'react';
+import { SessionConnection, type Presence, type SessionSnapshot } from '../api/session-connection';
+
+/**
+ * Opens a live session for as long as the component is mounted: document, presence, undo/redo,
+ * connection state and the latest compute result, re-rendering on every change.
+ */
+export function useSessionConnection(sessionId: string, presence: Pick<Presence, 'name' | 'colour'>): { connection: SessionConnection | null; snapshot: SessionSnapshot | null } {
+  const [connection, setConnection] = useState<SessionConnection | null>(null);
+  useEffect(() => {
+    const opened = new SessionConnection({ baseUrl: window.location.origin, sessionId, presence });
+    setConnection(opened);
+    return () => opened.destroy();
+    // Presence changes go through connection.setPresence, not a reconnect.
+  }, [sessionId]);
+  const snapshot = useSyncExternalStore(
+    connection?.subscribe ?? (() => () => undefined),
+    () => connection?.getSnapshot() ?? null,
+  );
+  return { connection, snapshot };
+}
