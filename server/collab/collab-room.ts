@@ -113,7 +113,8 @@ export class CollabRoom extends EventEmitter {
     this.pending = [];
     if (batch.length > 0) {
       this.writes = this.writes
-        .then(() => this.storage.append(this.sessionId, batch))
+        // One row per flush: the batch merged into a single update (Yjs merges without loss).
+        .then(() => this.storage.append(this.sessionId, [batch.length === 1 ? batch[0] : Y.mergeUpdates(batch)]))
         .then((lastId) => {
           this.lastUpdateId = lastId;
           this.updatesSinceCompact += batch.length;

@@ -1,4 +1,5 @@
 import type { Server as HttpServer } from 'node:http';
+import { availableParallelism } from 'node:os';
 import { Server as SocketServer, type Socket } from 'socket.io';
 import { can } from '../../shared/access/roles';
 import { validatedPatchFromDoc } from '../../shared/collab/patch-doc';
@@ -37,7 +38,9 @@ interface SessionCompute {
  */
 export function attachComputeChannel(httpServer: HttpServer, context: AppContext, hub: CollabHub, previewDurationS: number = LIMITS.previewMaxDurationS) {
   const io = new SocketServer(httpServer, { path: '/socket.io/', serveClient: false, destroyUpgrade: false, maxHttpBufferSize: 64 * 1024 });
-  const worker = new ComputeWorker();
+  // One worker per core; a session always computes on the same one, so two sessions never queue behind each other.
+  const workers = Array.from({ length: Math.max(1, Math.min(2, availableParallelism())) }, () => new ComputeWorker());
+  let nextWorker = 0;
   const computes = new Map<string, SessionCompute>();
 
   io.use((socket, next) => {
@@ -64,6 +67,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
   function computeFor(sessionId: string): SessionCompute {
     let entry = computes.get(sessionId);
     if (!entry) {
+      const worker = workers[nextWorker++ % workers.length];
       const created: SessionCompute = {
         sequence: 0,
         latest: null,
@@ -125,7 +129,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
     close: async () => {
       hub.off('change', onChange);
       await new Promise<void>((resolve) => io.close(() => resolve()));
-      await worker.close();
+      await Promise.all(workers.map((worker) => worker.close()));
     },
   };
 }

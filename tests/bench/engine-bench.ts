@@ -1,5 +1,5 @@
 /**
- * `npm run bench`: speed and memory figures of the string engine, printed as JSON.
+ * Speed and memory figures of the string engine (part of `npm run bench`).
  * Not a test: nothing here fails on a slow machine; the goals are reported beside the figures.
  */
 import { execFileSync } from 'node:child_process';
@@ -92,7 +92,8 @@ function cBaseline(modes: number, samples: number): { seconds: number; modesPerG
   }
 }
 
-async function main() {
+/** The engine figures: mode table, heavy render on all cores and one, naive and C baselines, memory. */
+export async function engineBench() {
   // 1. Mode table: a 10,000-point polyline, 4,096 modes (f0 = 10 Hz keeps them all below 48 kHz).
   const tablePatch = benchPatch(10, 2, 10_000, { sampleRateHz: 96000, durationS: 1, maxModes: 4096 });
   const modeCount = computeModeTable(tablePatch).count;
@@ -169,7 +170,5 @@ async function main() {
       singleThreadWithin1point5xOfC: cSeconds === null ? null : singleMs / (cSeconds * 1000) <= 1.5,
     },
   };
-  process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+  return report;
 }
-
-await main();

@@ -106,8 +106,7 @@ describe('durability under SIGKILL', () => {
       second = await startServerProcess({ ...env, PORT: String(first.port) });
       const reader = openClient(baseUrl, sessionId, token, 'reader');
       clients.push(reader);
-      await waitForSnapshot(reader, (s) => s.synced, 10_000, 'reader synced after restart');
-      expect(reader.getSnapshot().patch?.damping.b1PerS).toBe(3);
+      await waitForSnapshot(reader, (s) => s.synced && s.patch?.damping.b1PerS === 3, 10_000, 'reader synced after restart, with the last edit');
       expect(json(reader)).toBe(expected);
       expect(history(reader)).toEqual(expectedHistory);
 

@@ -68,7 +68,8 @@ describe('randomised collaboration (seeded)', () => {
       for (const connection of clients) if (!connection.provider.wsconnected && !connection.provider.wsconnecting) connection.provider.connect();
       const json = (connection: SessionConnection) => JSON.stringify(connection.doc.toJSON());
       await eventually(() => clients.every((connection) => json(connection) === json(clients[0])), 10_000, `identical documents (seed ${SEED})`);
-      // Whatever the interleaving, the document still reads as a valid patch.
+      // Whatever the interleaving, the document still reads as a valid patch (snapshots refresh once per frame).
+      await eventually(() => clients.every((connection) => JSON.stringify(connection.getSnapshot().patch) === JSON.stringify(clients[0].getSnapshot().patch)), 2000, 'snapshots refreshed');
       const patches = clients.map((connection) => connection.getSnapshot().patch);
       expect(validatePatch(patches[0]).ok, `seed ${SEED}`).toBe(true);
       for (const patch of patches) expect(patch, `seed ${SEED}`).toEqual(patches[0]);

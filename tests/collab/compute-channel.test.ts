@@ -93,7 +93,7 @@ describe('compute channel', () => {
     const writer = client('designer');
     await waitForSnapshot(writer, (s) => s.synced && s.result !== null, 10_000, 'first result');
     writer.edit((doc) => patchDoc(doc).string.set('tensionN', -5));
-    const snapshot = await waitForSnapshot(writer, (s) => s.computeIssues.length > 0, 10_000, 'invalid message');
+    const snapshot = await waitForSnapshot(writer, (s) => s.computeIssues.length > 0 && s.patchIssues.length > 0, 10_000, 'invalid message');
     expect(snapshot.computeIssues[0]).toMatchObject({ field: 'string.tensionN', message: 'string.tensionN must be > 0, got -5' });
     expect(snapshot.patchIssues[0].field).toBe('string.tensionN');
     writer.edit((doc) => patchDoc(doc).string.set('tensionN', 60));

@@ -81,6 +81,28 @@ export function decodeComputeResult(message: ComputeResultMessage<ArrayBuffer | 
   };
 }
 
+/** Runs `work` at most once per display frame (requestAnimationFrame in the browser, 16 ms elsewhere). */
+function frameCoalescer(work: () => void): { request: () => void; cancel: () => void } {
+  let pending: ReturnType<typeof setTimeout> | number | null = null;
+  const hasFrames = typeof requestAnimationFrame === 'function';
+  const run = () => {
+    pending = null;
+    work();
+  };
+  return {
+    request: () => {
+      if (pending !== null) return;
+      pending = hasFrames ? requestAnimationFrame(run) : setTimeout(run, 16);
+    },
+    cancel: () => {
+      if (pending === null) return;
+      if (hasFrames) cancelAnimationFrame(pending as number);
+      else clearTimeout(pending as ReturnType<typeof setTimeout>);
+      pending = null;
+    },
+  };
+}
+
 /**
  * A live session for the web app: the shared document over y-websocket, everyone's presence,
  * undo and redo of one's own edits only, the connection state, and the latest mode table and
@@ -94,6 +116,8 @@ export class SessionConnection {
   /** The origin of this person's edits; only these are undone. */
   readonly localOrigin = Symbol('local-edit');
   private snapshot: SessionSnapshot;
+  private readonly patchFrame = frameCoalescer(() => this.update(this.readPatch()));
+  private readonly peersFrame = frameCoalescer(() => this.updatePeers());
   private readonly listeners = new Set<() => void>();
   private everConnected = false;
 
@@ -136,11 +160,13 @@ export class SessionConnection {
     this.provider.on('sync', (synced: boolean) => this.update({ synced: this.snapshot.synced || synced, hasPendingEdits: !synced && this.snapshot.hasPendingEdits }));
     this.doc.on('update', (_update: Uint8Array, origin: unknown) => {
       const local = origin === this.localOrigin || origin === this.undoManager;
-      this.update({ ...this.readPatch(), ...(local && this.snapshot.connection !== 'connected' ? { hasPendingEdits: true } : {}) });
+      if (local && this.snapshot.connection !== 'connected' && !this.snapshot.hasPendingEdits) this.update({ hasPendingEdits: true });
+      // Reading and validating the patch once per frame is enough, however many updates arrive.
+      this.patchFrame.request();
     });
     this.undoManager.on('stack-item-added', () => this.updateUndo());
     this.undoManager.on('stack-item-popped', () => this.updateUndo());
-    this.provider.awareness.on('change', () => this.updatePeers());
+    this.provider.awareness.on('change', () => this.peersFrame.request());
 
     this.socket = io(options.baseUrl, {
       path: '/socket.io/',
@@ -208,6 +234,8 @@ export class SessionConnection {
   getSnapshot = (): SessionSnapshot => this.snapshot;
 
   destroy(): void {
+    this.patchFrame.cancel();
+    this.peersFrame.cancel();
     this.listeners.clear();
     this.socket.disconnect();
     this.undoManager.destroy();
