@@ -75,13 +75,18 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
           const sequence = ++created.sequence;
           const patch = await currentPatch(sessionId);
           if (!patch.ok) {
-            created.latest = { type: 'invalid', sessionId, sequence, issues: patch.issues };
-            io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.invalid, created.latest);
-            return;
+            const invalid: InvalidMessage = { type: 'invalid', sessionId, sequence, issues: patch.issues };
+            return () => {
+              created.latest = invalid;
+              io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.invalid, invalid);
+            };
           }
           const output = await worker.compute(patch.value, previewDurationS);
-          created.latest = { type: 'result', sessionId, sequence, ...output };
-          io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.result, created.latest);
+          const result: ComputeResultMessage = { type: 'result', sessionId, sequence, ...output };
+          return () => {
+            created.latest = result;
+            io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.result, result);
+          };
         }),
       };
       computes.set(sessionId, created);

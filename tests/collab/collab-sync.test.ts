@@ -131,6 +131,20 @@ describe('shared session document', () => {
   });
 });
 
+describe('REST edits of a live session', () => {
+  it('reach everyone connected at once: a preset loaded through the API replaces the live document', async () => {
+    const a = client('designer');
+    await waitForSnapshot(a, (s) => s.synced && s.patch !== null, 5000, 'synced');
+    const presets = await as(server.app, fixture.members.lead.token).post(`/api/studios/${fixture.studioId}/presets`).send({ name: 'Quay lamp wire', sessionId: fixture.sessionId });
+    const changed = { ...presets.body.preset.patch, damping: { b1PerS: 0.33, b2M2PerS: 0.0001 } };
+    await as(server.app, fixture.members.lead.token).patch(`/api/presets/${presets.body.preset.id}`).send({ patch: changed });
+    const loaded = await as(server.app, fixture.members.lead.token).post(`/api/sessions/${fixture.sessionId}/load-preset`).send({ presetId: presets.body.preset.id });
+    expect(loaded.status).toBe(200);
+    expect(loaded.body.session.patch.damping.b1PerS).toBe(0.33);
+    await waitForSnapshot(a, (s) => s.patch?.damping.b1PerS === 0.33 && s.patch?.name === 'Quay lamp wire', 5000, 'live document replaced');
+  });
+});
+
 describe('who may connect', () => {
   it('refuses no token and bad tokens (401), foreign and unknown sessions (404), archived ones (410); members connect', async () => {
     expect(await rawUpgrade(`/collab/${fixture.sessionId}`)).toEqual({ status: 401 });
