@@ -6,7 +6,7 @@ import type { Config } from 'tailwindcss';
  */
 export default {
   content: ['./index.html', './src/**/*.{ts,tsx}'],
-  darkMode: 'media',
+  darkMode: 'selector',
   theme: {
     extend: {
       fontFamily: {
@@ -30,6 +30,13 @@ export default {
         teal: {
           400: '#4cc7b8',
           600: '#1f8f82',
+        },
+        ember: {
+          300: '#f6a98f',
+          400: '#ef8566',
+          500: '#e0623f',
+          600: '#c24b2b',
+          700: '#9a3a20',
         },
       },
       spacing: {

@@ -12,7 +12,6 @@ export default defineConfig({
     // In development the API runs on its own port; Vite forwards to it.
     proxy: {
       '/api': `http://localhost:${serverPort}`,
-      '/dev/mailbox': `http://localhost:${serverPort}`,
       '/collab': { target: `ws://localhost:${serverPort}`, ws: true },
       '/socket.io': { target: `http://localhost:${serverPort}`, ws: true },
     },

@@ -48,9 +48,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
     app.use('/api', routes(context));
   }
   if (context.mailbox) {
-    const mailbox = devMailboxRoutes(context, context.mailbox);
-    app.use('/api', mailbox.api);
-    app.use(mailbox.page);
+    app.use('/api', devMailboxRoutes(context, context.mailbox));
   }
   app.use('/api', (request, _response, next) => {
     next(new ApiError(404, 'not_found', `No API route ${request.method} ${request.originalUrl}`));

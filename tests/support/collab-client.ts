@@ -1,6 +1,9 @@
 import WebSocket from 'ws';
 import { SessionConnection, type SessionSnapshot } from '../../src/features/collab/api/session-connection';
 
+// Each y-websocket provider adds a process exit listener; tests open many at once.
+process.setMaxListeners(64);
+
 /** A real client of the web app's collaboration library, in Node, over real websockets. */
 export function openClient(baseUrl: string, sessionId: string, token: string, name = 'tester'): SessionConnection {
   return new SessionConnection({

@@ -1,0 +1,18 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import type { AuthResponse } from '../../../../shared/api/responses';
+import { registerBody } from '../../../../shared/api/schemas';
+import { apiRequest } from '../../../lib/api-client';
+import { getMeQueryOptions } from './get-me';
+
+export const registerInputSchema = registerBody;
+export type RegisterInput = z.input<typeof registerBody>;
+
+export function register(input: RegisterInput): Promise<AuthResponse> {
+  return apiRequest<AuthResponse>('/auth/register', { method: 'POST', body: input });
+}
+
+export function useRegister() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: register, onSuccess: () => queryClient.invalidateQueries({ queryKey: getMeQueryOptions().queryKey }) });
+}

@@ -1,0 +1,18 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import type { AuthResponse } from '../../../../shared/api/responses';
+import { loginBody } from '../../../../shared/api/schemas';
+import { apiRequest } from '../../../lib/api-client';
+import { getMeQueryOptions } from './get-me';
+
+export const signInInputSchema = loginBody;
+export type SignInInput = z.input<typeof loginBody>;
+
+export function signIn(input: SignInInput): Promise<AuthResponse> {
+  return apiRequest<AuthResponse>('/auth/login', { method: 'POST', body: input });
+}
+
+export function useSignIn() {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: signIn, onSuccess: () => queryClient.invalidateQueries({ queryKey: getMeQueryOptions().queryKey }) });
+}

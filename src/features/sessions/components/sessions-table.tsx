@@ -1,0 +1,80 @@
+import { useMemo, useState } from 'react';
+import { Link } from 'react-router-dom';
+import type { SessionSummary } from '../../../../shared/api/responses';
+import { ACTION_REASONS } from '../../../../shared/access/roles';
+import { Button } from '../../../components/button';
+import { DataTable, type Column } from '../../../components/data-table';
+import { EmptyState } from '../../../components/empty-state';
+
+export interface SessionsTableProps {
+  sessions: SessionSummary[];
+  canEdit: boolean;
+  onRename: (session: SessionSummary) => void;
+  onArchive: (session: SessionSummary, archived: boolean) => void;
+  busyId?: string;
+}
+
+const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+/** The studio's sessions: searchable by name, sortable by name, last edit and editor. */
+export function SessionsTable({ sessions, canEdit, onRename, onArchive, busyId }: SessionsTableProps) {
+  const [query, setQuery] = useState('');
+  const shown = useMemo(() => {
+    const needle = query.trim().toLowerCase();
+    return needle ? sessions.filter((session) => session.name.toLowerCase().includes(needle)) : sessions;
+  }, [sessions, query]);
+  const reason = canEdit ? undefined : ACTION_REASONS.editSessions;
+
+  const columns: Column<SessionSummary>[] = [
+    {
+      key: 'name',
+      header: 'Session',
+      sortValue: (session) => session.name.toLowerCase(),
+      render: (session) => (
+        <Link to={`/sessions/${session.id}`} className="font-semibold text-slate-900 underline-offset-2 hover:underline focus-visible:outline-2 focus-visible:outline-teal-400 dark:text-slate-100">
+          {session.name}
+          {session.archived && <span className="ml-2 rounded bg-slate-700/10 px-1.5 py-0.5 text-xs font-normal dark:bg-slate-100/10">archived</span>}
+        </Link>
+      ),
+    },
+    { key: 'updatedAt', header: 'Last edited', sortValue: (session) => Date.parse(session.updatedAt), render: (session) => dateTime.format(new Date(session.updatedAt)) },
+    { key: 'updatedBy', header: 'By', sortValue: (session) => session.updatedBy?.displayName ?? '', render: (session) => session.updatedBy?.displayName ?? '—' },
+    {
+      key: 'actions',
+      header: 'Actions',
+      className: 'text-right',
+      render: (session) => (
+        <div className="flex justify-end gap-2">
+          <Button variant="secondary" disabledReason={reason} onClick={() => onRename(session)} aria-label={`Rename ${session.name}`}>
+            Rename
+          </Button>
+          <Button variant="ghost" disabledReason={reason} busy={busyId === session.id} onClick={() => onArchive(session, !session.archived)} aria-label={`${session.archived ? 'Restore' : 'Archive'} ${session.name}`}>
+            {session.archived ? 'Restore' : 'Archive'}
+          </Button>
+        </div>
+      ),
+    },
+  ];
+
+  return (
+    <div className="flex flex-col gap-3">
+      <label className="flex max-w-sm flex-col gap-1 text-sm font-semibold">
+        Search sessions
+        <input
+          type="search"
+          value={query}
+          onChange={(event) => setQuery(event.target.value)}
+          className="rounded-md border border-slate-700/30 bg-white px-3 py-2 font-normal dark:border-slate-300/20 dark:bg-slate-900"
+          placeholder="Name contains…"
+        />
+      </label>
+      {shown.length === 0 ? (
+        <EmptyState title={sessions.length === 0 ? 'No sessions yet' : 'No session matches'}>
+          {sessions.length === 0 ? (canEdit ? 'Start one to shape a string with your team.' : 'A lead or designer can start one.') : 'Try another name.'}
+        </EmptyState>
+      ) : (
+        <DataTable caption="Sessions of this studio" rows={shown} columns={columns} rowKey={(session) => session.id} initialSort={{ key: 'updatedAt', direction: 'descending' }} />
+      )}
+    </div>
+  );
+}
