@@ -4,7 +4,7 @@ type Variant = 'primary' | 'secondary' | 'danger' | 'ghost';
 
 const variants: Record<Variant, string> = {
   primary: 'bg-brass-500 text-slate-950 hover:bg-brass-400 disabled:bg-brass-500/50',
-  secondary: 'border border-slate-700/30 bg-white/60 text-slate-900 hover:bg-white dark:border-slate-300/20 dark:bg-slate-800 dark:text-slate-100 dark:hover:bg-slate-700',
+  secondary: 'border border-slate-700/30 bg-white text-slate-900 hover:bg-white dark:border-slate-300/20 dark:bg-slate-800 dark:text-slate-100 dark:hover:bg-slate-700',
   danger: 'bg-ember-600 text-white hover:bg-ember-500 disabled:bg-ember-600/50',
   ghost: 'text-slate-700 hover:bg-slate-700/10 dark:text-slate-300 dark:hover:bg-slate-100/10',
 };

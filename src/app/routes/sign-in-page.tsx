@@ -30,7 +30,7 @@ export default function SignInPage() {
   return (
     <AuthFrame title="Sign in">
       <form onSubmit={submit} noValidate className="flex flex-col gap-2">
-        {params.get('next') && <Notice>Sign in to continue where you were.</Notice>}
+        {safeNext(params.get('next')) !== '/' && <Notice>Sign in to continue where you were.</Notice>}
         <TextField label="E-mail" type="email" autoComplete="email" value={email} onChange={(event) => setEmail(event.target.value)} error={fields.errors.email} required />
         <TextField label="Password" type="password" autoComplete="current-password" value={password} onChange={(event) => setPassword(event.target.value)} error={fields.errors.password} required />
         {signIn.isError && !fields.errors.email && !fields.errors.password && <Notice tone="error">{signIn.error.message}</Notice>}

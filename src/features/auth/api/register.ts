@@ -14,5 +14,9 @@ export function register(input: RegisterInput): Promise<AuthResponse> {
 
 export function useRegister() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: register, onSuccess: () => queryClient.invalidateQueries({ queryKey: getMeQueryOptions().queryKey }) });
+  return useMutation({
+    mutationFn: register,
+    // Fetch the signed-in user before the caller navigates, so the next page never sees the old answer.
+    onSuccess: () => queryClient.fetchQuery({ ...getMeQueryOptions(), staleTime: 0 }),
+  });
 }

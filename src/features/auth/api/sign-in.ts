@@ -14,5 +14,9 @@ export function signIn(input: SignInInput): Promise<AuthResponse> {
 
 export function useSignIn() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: signIn, onSuccess: () => queryClient.invalidateQueries({ queryKey: getMeQueryOptions().queryKey }) });
+  return useMutation({
+    mutationFn: signIn,
+    // Fetch the signed-in user before the caller navigates, so the next page never sees the old answer.
+    onSuccess: () => queryClient.fetchQuery({ ...getMeQueryOptions(), staleTime: 0 }),
+  });
 }

@@ -14,5 +14,9 @@ export async function createStudio(input: CreateStudioInput): Promise<StudioSumm
 
 export function useCreateStudio() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: createStudio, onSuccess: () => queryClient.invalidateQueries({ queryKey: getMeQueryOptions().queryKey }) });
+  return useMutation({
+    mutationFn: createStudio,
+    // Fetch the signed-in user before the caller navigates, so the next page never sees the old answer.
+    onSuccess: () => queryClient.fetchQuery({ ...getMeQueryOptions(), staleTime: 0 }),
+  });
 }

@@ -1,0 +1,125 @@
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
+import { startAppProcess, type AppProcess } from '../support/app-process';
+import { launchBrowser } from '../support/browser';
+import { PROJECT_ROOT } from '../support/run-cli';
+
+/** Screenshots for review land here (git-ignored). */
+const SHOTS = join(PROJECT_ROOT, 'test-results', 'screenshots');
+
+let app: AppProcess;
+let browser: Browser;
+const contexts: BrowserContext[] = [];
+
+beforeAll(async () => {
+  mkdirSync(SHOTS, { recursive: true });
+  app = await startAppProcess();
+  browser = await launchBrowser();
+}, 180_000);
+
+afterAll(async () => {
+  for (const context of contexts) await context.close();
+  await browser?.close();
+  await app?.stop();
+});
+
+async function newPage(colorScheme: 'light' | 'dark' = 'light'): Promise<Page> {
+  const context = await browser.newContext({ baseURL: app.baseUrl, colorScheme, viewport: { width: 1280, height: 860 } });
+  contexts.push(context);
+  return context.newPage();
+}
+
+/** Saves the page in both themes: the app follows the system scheme until someone picks one. */
+async function screenshots(page: Page, name: string): Promise<void> {
+  for (const scheme of ['light', 'dark'] as const) {
+    await page.emulateMedia({ colorScheme: scheme });
+    await page.waitForTimeout(50);
+    await page.screenshot({ path: join(SHOTS, `${name}-${scheme}.png`), fullPage: true });
+  }
+  await page.emulateMedia({ colorScheme: 'light' });
+}
+
+async function signIn(page: Page, email: string, password: string): Promise<void> {
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+const account = (role: string) => DEMO_ACCOUNTS.find((candidate) => candidate.role === role)!;
+
+describe('the studio web app in a real browser', () => {
+  it('registers a new account, signs out and in again, and creates a studio', async () => {
+    const page = await newPage();
+    await page.goto('/');
+    await page.waitForURL(/\/sign-in\?next=/);
+    await screenshots(page, 'sign-in');
+    await page.getByRole('link', { name: 'Create an account' }).click();
+    await page.getByLabel('Your name').fill('Marisol Teague');
+    await page.getByLabel('E-mail').fill('marisol@saltglass.example');
+    await page.getByLabel('Password').fill('short');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await expect(page.getByText('Password must be at least 10 characters').isVisible()).resolves.toBe(true);
+    await screenshots(page, 'register-error');
+    await page.getByLabel('Password').fill('quiet-harbour-42');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.waitForURL(/\/studios\/new$/);
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(/\/sign-in$/);
+    await signIn(page, 'marisol@saltglass.example', 'quiet-harbour-42');
+    await page.waitForURL(/\/studios\/new$/);
+    await screenshots(page, 'create-studio');
+    await page.getByLabel('Studio name').fill('Tidewater Foley');
+    await page.getByRole('button', { name: 'Create studio' }).click();
+    await page.waitForURL(/\/studios\/[0-9a-f-]+$/);
+    await page.getByRole('heading', { name: 'Tidewater Foley' }).waitFor();
+    await expect(page.getByText('No sessions yet').isVisible()).resolves.toBe(true);
+  });
+
+  it('shows the seeded lead the studio’s sessions, and starts and renames one', async () => {
+    const page = await newPage();
+    await signIn(page, account('lead').email, DEMO_PASSWORD);
+    await page.getByRole('heading', { name: 'Kestrel Lantern Audio' }).waitFor();
+    await page.getByRole('link', { name: 'Lighthouse stair climb' }).waitFor();
+    await screenshots(page, 'studio-home');
+    await page.getByLabel('Session name').fill('Gull cliff pluck');
+    await page.getByRole('button', { name: 'Start session' }).click();
+    await page.getByRole('link', { name: 'Gull cliff pluck' }).waitFor();
+    await page.getByRole('button', { name: 'Rename Gull cliff pluck' }).click();
+    await page.getByLabel('New name').fill('Gull cliff pluck, soft');
+    await page.getByRole('button', { name: 'Save name' }).click();
+    await page.getByRole('link', { name: 'Gull cliff pluck, soft' }).waitFor();
+    await page.getByRole('link', { name: 'Gull cliff pluck, soft' }).click();
+    await page.waitForURL(/\/sessions\//);
+    await page.getByText('Fundamental').waitFor();
+    await screenshots(page, 'session');
+  });
+
+  it('a listener sees the sessions but no usable edit controls, and each says why', async () => {
+    const page = await newPage();
+    await signIn(page, account('listener').email, DEMO_PASSWORD);
+    await page.getByRole('link', { name: 'Lighthouse stair climb' }).waitFor();
+    const start = page.getByRole('button', { name: 'Start session' });
+    await expect(start.isDisabled()).resolves.toBe(true);
+    await expect(start.getAttribute('title')).resolves.toBe('only leads and designers can create or edit sessions');
+    const rename = page.getByRole('button', { name: 'Rename Lighthouse stair climb' });
+    await expect(rename.isDisabled()).resolves.toBe(true);
+    await expect(page.getByRole('link', { name: 'Members' }).count()).resolves.toBe(0);
+    await screenshots(page, 'studio-home-listener');
+  });
+
+  it('loads the sign-in page without the editor, audio or canvas code', async () => {
+    const page = await newPage();
+    const scripts: string[] = [];
+    page.on('request', (request) => {
+      if (request.resourceType() === 'script') scripts.push(request.url());
+    });
+    await page.goto('/sign-in');
+    await page.getByRole('button', { name: 'Sign in' }).waitFor();
+    expect(scripts.some((url) => /tone|konva|session-connection|yjs/i.test(url))).toBe(false);
+    expect(scripts.some((url) => /sign-in-page/.test(url))).toBe(true);
+  });
+});
