@@ -40,6 +40,13 @@ export class CollabHub extends EventEmitter {
     }
   }
 
+  /** Who is connected to each live session, by user id (each person once). */
+  presence(): Map<string, string[]> {
+    const result = new Map<string, string[]>();
+    for (const [sessionId, room] of this.rooms) result.set(sessionId, [...new Set([...room.connections].map((connection) => connection.userId))]);
+    return result;
+  }
+
   /** The live room of a session, if anyone is connected. */
   room(sessionId: string): CollabRoom | undefined {
     return this.rooms.get(sessionId);

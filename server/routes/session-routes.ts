@@ -69,6 +69,18 @@ export function sessionRoutes(context: AppContext): Router {
     response.json({ sessions: rows.map((row) => sessionSummary(row, names)) });
   });
 
+  // Who is in each of the studio's sessions right now (live collaboration).
+  router.get('/studios/:studioId/sessions/presence', async (request, response) => {
+    const membership = await requireMembership(context.dataSource, currentUser(request).id, request.params.studioId);
+    const live = context.collab?.presence() ?? new Map<string, string[]>();
+    const ids = live.size > 0 ? (await sessions().find({ where: { studioId: membership.studioId }, select: { id: true } })).map((row) => row.id) : [];
+    const inStudio = ids.filter((id) => live.has(id));
+    const names = await displayNames(inStudio.flatMap((id) => live.get(id) ?? []));
+    response.json({
+      presence: Object.fromEntries(inStudio.map((id) => [id, (live.get(id) ?? []).map((userId) => ({ id: userId, displayName: names.get(userId) ?? null }))])),
+    });
+  });
+
   router.post('/studios/:studioId/sessions', async (request, response) => {
     const user = currentUser(request);
     const membership = await requireAccess(context.dataSource, user.id, request.params.studioId, 'editSessions');

@@ -131,6 +131,18 @@ describe('shared session document', () => {
   });
 });
 
+describe('who is in a session now', () => {
+  it('lists the people connected to each of the studio’s sessions', async () => {
+    const a = client('designer');
+    await waitForSnapshot(a, (s) => s.synced, 5000, 'synced');
+    const presence = await as(server.app, fixture.members.listener.token).get(`/api/studios/${fixture.studioId}/sessions/presence`);
+    expect(presence.status).toBe(200);
+    expect(presence.body.presence[fixture.sessionId].map((person: { id: string }) => person.id)).toContain(fixture.members.designer.id);
+    const outsider = await registerUser(server.app, 'presence-outsider@gannet-rock.example', 'Outsider');
+    expect((await as(server.app, outsider.token).get(`/api/studios/${fixture.studioId}/sessions/presence`)).status).toBe(404);
+  });
+});
+
 describe('REST edits of a live session', () => {
   it('reach everyone connected at once: a preset loaded through the API replaces the live document', async () => {
     const a = client('designer');

@@ -10,6 +10,7 @@ import { TextField } from '../../components/text-field';
 import { useMe } from '../../features/auth/api/get-me';
 import { createSessionInputSchema, useCreateSession } from '../../features/sessions/api/create-session';
 import { useSessions } from '../../features/sessions/api/get-sessions';
+import { useSessionPresence } from '../../features/sessions/api/get-session-presence';
 import { updateSessionInputSchema, useUpdateSession } from '../../features/sessions/api/update-session';
 import { SessionsTable } from '../../features/sessions/components/sessions-table';
 import { useFieldErrors } from '../../lib/use-field-errors';
@@ -22,6 +23,7 @@ export default function StudioHomePage() {
   const studio = me.data?.studios.find((candidate) => candidate.id === studioId);
   const [showArchived, setShowArchived] = useState(false);
   const sessions = useSessions(studioId, showArchived);
+  const presence = useSessionPresence(studioId);
   const create = useCreateSession(studioId);
   const update = useUpdateSession(studioId);
   const createFields = useFieldErrors();
@@ -96,6 +98,7 @@ export default function StudioHomePage() {
       ) : (
         <SessionsTable
           sessions={sessions.data}
+          presence={presence.data}
           canEdit={canEdit}
           busyId={update.isPending ? update.variables?.sessionId : undefined}
           onRename={(session) => setRenaming({ session, name: session.name })}

@@ -12,12 +12,14 @@ export interface SessionsTableProps {
   onRename: (session: SessionSummary) => void;
   onArchive: (session: SessionSummary, archived: boolean) => void;
   busyId?: string;
+  /** Who is in each session now, by session id. */
+  presence?: Record<string, Array<{ id: string; displayName: string | null }>>;
 }
 
 const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
 /** The studio's sessions: searchable by name, sortable by name, last edit and editor. */
-export function SessionsTable({ sessions, canEdit, onRename, onArchive, busyId }: SessionsTableProps) {
+export function SessionsTable({ sessions, canEdit, onRename, onArchive, busyId, presence = {} }: SessionsTableProps) {
   const [query, setQuery] = useState('');
   const shown = useMemo(() => {
     const needle = query.trim().toLowerCase();
@@ -39,6 +41,22 @@ export function SessionsTable({ sessions, canEdit, onRename, onArchive, busyId }
     },
     { key: 'updatedAt', header: 'Last edited', sortValue: (session) => Date.parse(session.updatedAt), render: (session) => dateTime.format(new Date(session.updatedAt)) },
     { key: 'updatedBy', header: 'By', sortValue: (session) => session.updatedBy?.displayName ?? '', render: (session) => session.updatedBy?.displayName ?? '—' },
+    {
+      key: 'here',
+      header: 'Here now',
+      sortValue: (session) => presence[session.id]?.length ?? 0,
+      render: (session) => {
+        const people = presence[session.id] ?? [];
+        return people.length === 0 ? (
+          <span className="text-slate-600 dark:text-slate-300">—</span>
+        ) : (
+          <span className="inline-flex items-center gap-1.5">
+            <span className="size-2 rounded-full bg-teal-400" aria-hidden="true" />
+            {people.map((person) => person.displayName ?? 'someone').join(', ')}
+          </span>
+        );
+      },
+    },
     {
       key: 'actions',
       header: 'Actions',
