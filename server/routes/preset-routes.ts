@@ -12,6 +12,12 @@ import { Session } from '../db/entities/session';
 import { User } from '../db/entities/user';
 import { invalidFields, notFound } from '../http/api-error';
 import { parseInput, parsePatch } from '../http/parse-input';
+import { normalizePeak } from '../../shared/audio/normalize-peak';
+import { AUDITION_PEAK_DBFS } from '../../shared/audio/wav-format';
+import { previewPatch } from '../../shared/engine/preview-patch';
+import { renderPatch } from '../../shared/engine/render-patch';
+import { seededRandom } from '../../shared/random/seeded-random';
+import { encodeWav } from '../audio/encode-wav';
 
 function presetView(preset: Preset, authorName: string | null, withPatch: boolean) {
   return {
@@ -140,6 +146,17 @@ export function presetRoutes(context: AppContext): Router {
   router.get('/presets/:id', async (request, response) => {
     const { preset } = await presetFor(currentUser(request).id, request.params.id);
     response.json({ preset: presetView(preset, await authorName(preset.createdById), true) });
+  });
+
+  // Audition: a short preview, rendered at a modest level so a first listen is never loud.
+  router.get('/presets/:id/preview.wav', async (request, response) => {
+    const { preset } = await presetFor(currentUser(request).id, request.params.id);
+    const preview = previewPatch(parsePatch(preset.patch));
+    const samples = renderPatch(preview);
+    normalizePeak(samples, AUDITION_PEAK_DBFS);
+    const wav = encodeWav(samples, preview.render.sampleRateHz, 'pcm16', { title: preset.name, software: 'Tautline', date: new Date().toISOString().slice(0, 10) }, seededRandom(1));
+    response.type('audio/wav').setHeader('Cache-Control', 'private, max-age=60');
+    response.send(Buffer.from(wav.bytes));
   });
 
   router.get('/presets/:id/download', async (request, response) => {

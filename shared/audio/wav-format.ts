@@ -8,3 +8,6 @@ export type NormalizeMode = (typeof NORMALIZE_MODES)[number];
 
 /** Peak ceiling of a peak-normalised render, dBFS. */
 export const DEFAULT_PEAK_CEILING_DBFS = -1;
+
+/** Peak level of audition previews, dBFS: well under full scale, so a first listen is never loud. */
+export const AUDITION_PEAK_DBFS = -12;

@@ -3,6 +3,7 @@ import { NavLink, useNavigate, useParams } from 'react-router-dom';
 import type { MeResponse } from '../../shared/api/responses';
 import { can } from '../../shared/access/roles';
 import { ThemeToggle } from '../components/theme-toggle';
+import { MasterVolume } from '../features/audition/components/master-volume';
 import { useSignOut } from '../features/auth/api/sign-out';
 import { currentStudio, rememberStudio } from '../features/studios/current-studio';
 
@@ -69,6 +70,7 @@ export function AppShell({ me, children }: { me: MeResponse; children: ReactNode
             </NavLink>
           </nav>
           <div className="ml-auto flex items-center gap-1">
+            <MasterVolume />
             <ThemeToggle />
             <NavLink to="/account" className={navClass}>
               {me.user.displayName}
