@@ -7,17 +7,23 @@ import { RouteError } from './route-error';
  */
 const page = (load: () => Promise<{ default: React.ComponentType }>) => async () => ({ Component: (await load()).default });
 
+/** Shown for the instant before the first page's code arrives. */
+function PageLoading() {
+  return <div className="min-h-screen" aria-busy="true" />;
+}
+
 export function createAppRouter() {
   return createBrowserRouter([
-    { path: '/sign-in', lazy: page(() => import('./routes/sign-in-page')), errorElement: <RouteError /> },
-    { path: '/register', lazy: page(() => import('./routes/register-page')), errorElement: <RouteError /> },
-    { path: '/forgot-password', lazy: page(() => import('./routes/forgot-password-page')), errorElement: <RouteError /> },
-    { path: '/reset-password', lazy: page(() => import('./routes/reset-password-page')), errorElement: <RouteError /> },
-    { path: '/invitations/accept', lazy: page(() => import('./routes/accept-invitation-page')), errorElement: <RouteError /> },
-    { path: '/dev/mailbox', lazy: page(() => import('./routes/mailbox-page')), errorElement: <RouteError /> },
+    { path: '/sign-in', lazy: page(() => import('./routes/sign-in-page')), errorElement: <RouteError />, HydrateFallback: PageLoading },
+    { path: '/register', lazy: page(() => import('./routes/register-page')), errorElement: <RouteError />, HydrateFallback: PageLoading },
+    { path: '/forgot-password', lazy: page(() => import('./routes/forgot-password-page')), errorElement: <RouteError />, HydrateFallback: PageLoading },
+    { path: '/reset-password', lazy: page(() => import('./routes/reset-password-page')), errorElement: <RouteError />, HydrateFallback: PageLoading },
+    { path: '/invitations/accept', lazy: page(() => import('./routes/accept-invitation-page')), errorElement: <RouteError />, HydrateFallback: PageLoading },
+    { path: '/dev/mailbox', lazy: page(() => import('./routes/mailbox-page')), errorElement: <RouteError />, HydrateFallback: PageLoading },
     {
       lazy: page(() => import('./routes/signed-in-layout')),
       errorElement: <RouteError />,
+      HydrateFallback: PageLoading,
       children: [
         { path: '/', lazy: page(() => import('./routes/home-redirect')) },
         { path: '/studios/new', lazy: page(() => import('./routes/create-studio-page')) },

@@ -14,7 +14,7 @@ export interface LoadIntoSessionPanelProps {
   onClose: () => void;
 }
 
-const linkClass = 'font-semibold text-brass-700 underline underline-offset-2 focus-visible:outline-2 focus-visible:outline-teal-400 dark:text-brass-300';
+const linkClass = 'font-semibold text-brass-600 underline underline-offset-2 focus-visible:outline-2 focus-visible:outline-teal-400 dark:text-brass-400';
 
 /** Picks one of the studio's open sessions and replaces its string with the preset's. */
 export function LoadIntoSessionPanel({ studioId, preset, onClose }: LoadIntoSessionPanelProps) {

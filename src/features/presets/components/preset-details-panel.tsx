@@ -8,7 +8,7 @@ import { ActionPanel } from './action-panel';
 import { TagChips } from './presets-table';
 
 const hz = new Intl.NumberFormat('en', { maximumFractionDigits: 1, minimumFractionDigits: 1 });
-const figure = new Intl.NumberFormat('en', { maximumSignificantDigits: 3 });
+const figure = new Intl.NumberFormat('en', { minimumSignificantDigits: 2, maximumSignificantDigits: 3 });
 
 /**
  * What a preset is, in figures read from its patch. Audition arrives with the audio engine in a
@@ -35,7 +35,7 @@ export function PresetDetailsPanel({ preset, onClose }: { preset: PresetSummary;
                 <dt className="font-semibold">Fundamental</dt>
                 <dd>
                   <span className="tabular-nums">{hz.format(figures.fundamentalHz)} Hz</span>{' '}
-                  <span className="text-slate-600 dark:text-slate-400">
+                  <span className="text-slate-600 dark:text-slate-300">
                     (√(T/μ) / 2L; nearest note {figures.nearestNote}
                     {figures.centsFromNote !== 0 && `, ${figures.centsFromNote > 0 ? '+' : '−'}${Math.abs(figures.centsFromNote)} cents`})
                   </span>
@@ -47,7 +47,7 @@ export function PresetDetailsPanel({ preset, onClose }: { preset: PresetSummary;
                   ) : (
                     <>
                       <span className="tabular-nums">{figure.format(figures.firstModeT60S)} s</span> to fall 60 dB{' '}
-                      <span className="text-slate-600 dark:text-slate-400">(σ₁ = {figure.format(figures.firstModeDecayPerS)} s⁻¹)</span>
+                      <span className="text-slate-600 dark:text-slate-300">(σ₁ = {figure.format(figures.firstModeDecayPerS)} s⁻¹)</span>
                     </>
                   )}
                 </dd>
@@ -58,7 +58,7 @@ export function PresetDetailsPanel({ preset, onClose }: { preset: PresetSummary;
                   <TagChips tags={detail.data.tags} />
                 </dd>
                 <dt className="font-semibold">Description</dt>
-                <dd>{detail.data.description || <span className="text-slate-600 dark:text-slate-400">No description.</span>}</dd>
+                <dd>{detail.data.description || <span className="text-slate-600 dark:text-slate-300">No description.</span>}</dd>
               </dl>
             </>
           )
