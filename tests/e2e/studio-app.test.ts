@@ -1,4 +1,5 @@
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -6,6 +7,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { startAppProcess, type AppProcess } from '../support/app-process';
 import { launchBrowser } from '../support/browser';
 import { PROJECT_ROOT } from '../support/run-cli';
+import { testPatch } from '../support/patches';
 
 /** Screenshots for review land here (git-ignored). */
 const SHOTS = join(PROJECT_ROOT, 'test-results', 'screenshots');
@@ -109,6 +111,59 @@ describe('the studio web app in a real browser', () => {
     await expect(rename.isDisabled()).resolves.toBe(true);
     await expect(page.getByRole('link', { name: 'Members' }).count()).resolves.toBe(0);
     await screenshots(page, 'studio-home-listener');
+  });
+
+  it('uploads a valid and an invalid patch file as presets: the preset appears, the field error shows', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tautline-e2e-files-'));
+    const good = join(dir, 'harbour-bell-wire.json');
+    const bad = join(dir, 'broken-tension.json');
+    writeFileSync(good, JSON.stringify(testPatch({ name: 'Harbour bell-wire' })));
+    writeFileSync(bad, JSON.stringify({ ...testPatch({ name: 'Broken tension' }), string: { lengthM: 0.65, tensionN: -5, linearDensityKgPerM: 6e-4 } }));
+    const page = await newPage();
+    await signIn(page, account('lead').email, DEMO_PASSWORD);
+    await page.getByRole('link', { name: 'Presets' }).click();
+    await page.getByRole('heading', { name: 'Presets' }).waitFor();
+    await page.getByText('Lantern Room Harp').first().waitFor();
+    await screenshots(page, 'presets');
+
+    await page.getByLabel('Patch JSON file').setInputFiles(bad);
+    await page.getByRole('button', { name: 'Upload preset' }).click();
+    await page.getByText('string.tensionN must be > 0, got -5').waitFor();
+    await expect(page.getByText('broken-tension.json was not accepted:').isVisible()).resolves.toBe(true);
+    await screenshots(page, 'presets-upload-error');
+
+    await page.getByLabel('Patch JSON file').setInputFiles(good);
+    await page.getByRole('button', { name: 'Upload preset' }).click();
+    await page.getByRole('cell', { name: /Harbour bell-wire/ }).first().waitFor();
+  });
+
+  it('plays a preset only after the first-play caution, through the master volume', async () => {
+    const page = await newPage();
+    await signIn(page, account('producer').email, DEMO_PASSWORD);
+    await page.getByRole('link', { name: 'Presets' }).click();
+    await page.getByRole('button', { name: 'Play Lantern Room Harp' }).click();
+    const caution = page.getByRole('alertdialog', { name: 'Before the first sound' });
+    await caution.waitFor();
+    await screenshots(page, 'audition-caution');
+    await caution.getByRole('button', { name: 'Play at this level' }).click();
+    await page.getByRole('button', { name: 'Stop Lantern Room Harp' }).waitFor({ timeout: 15_000 });
+    // The caution is shown once per device.
+    await page.getByRole('button', { name: 'Stop Lantern Room Harp' }).click();
+    await page.getByRole('button', { name: 'Play Lantern Room Harp' }).click();
+    await page.getByRole('button', { name: 'Stop Lantern Room Harp' }).waitFor({ timeout: 15_000 });
+    await expect(page.getByRole('alertdialog').count()).resolves.toBe(0);
+  });
+
+  it('a listener sees the presets but cannot upload, edit tags or delete', async () => {
+    const page = await newPage();
+    await signIn(page, account('listener').email, DEMO_PASSWORD);
+    await page.getByRole('link', { name: 'Presets' }).click();
+    await page.getByText('Lantern Room Harp').first().waitFor();
+    await expect(page.getByLabel('Patch JSON file').isDisabled()).resolves.toBe(true);
+    const deletes = page.getByRole('button', { name: /^Delete/ });
+    expect(await deletes.count()).toBeGreaterThan(0);
+    for (const button of await deletes.all()) await expect(button.isDisabled()).resolves.toBe(true);
+    await screenshots(page, 'presets-listener');
   });
 
   it('loads the sign-in page without the editor, audio or canvas code', async () => {
