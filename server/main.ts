@@ -27,12 +27,14 @@ export async function startServer(options: { serveClient: boolean }): Promise<{ 
 
   const mailbox = process.env.SMTP_URL ? null : await startFakeSmtpServer();
   const mailer = createSmtpMailer(process.env.SMTP_URL ?? (mailbox as NonNullable<typeof mailbox>).smtpUrl, MAIL_FROM);
-  if (mailbox) log(`No SMTP_URL: e-mail goes to the local mailbox at ${config.appUrl}/dev/mailbox`);
+  if (mailbox) log('No SMTP_URL: e-mail goes to the local mailbox at /dev/mailbox');
 
   const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(), log };
   const tautline = createTautlineServer(context, { clientDistDir: options.serveClient ? CLIENT_DIST_DIR : undefined });
   const server = tautline.server;
   const boundPort = await tautline.listen(port);
+  // With PORT=0 the port is known only now; links in e-mails must carry it.
+  if (!process.env.APP_URL) config.appUrl = `http://localhost:${boundPort}`;
   log(`Tautline is listening on http://localhost:${boundPort}`);
 
   const close = async () => {

@@ -17,7 +17,9 @@ export class ApiRequestError extends Error {
   static fromBody(status: number, body: unknown): ApiRequestError {
     const error = (body as Partial<ApiErrorBody> | null)?.error;
     if (!error) return new ApiRequestError(status, 'internal', `The server answered ${status}`);
-    const issues = error.issues ?? (error.field ? [{ field: error.field, problem: error.message, got: null, message: error.message }] : []);
+    // A single blamed field comes as `<field> <problem>`; keep the problem so it reads well beside the field.
+    const problem = error.field && error.message.startsWith(`${error.field} `) ? error.message.slice(error.field.length + 1) : error.message;
+    const issues = error.issues ?? (error.field ? [{ field: error.field, problem, got: null, message: error.message }] : []);
     return new ApiRequestError(status, error.code, error.message, error.field, issues);
   }
 

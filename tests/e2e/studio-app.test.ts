@@ -113,6 +113,34 @@ describe('the studio web app in a real browser', () => {
     await screenshots(page, 'studio-home-listener');
   });
 
+  it('invites a new member, who opens the mail in the local mailbox, joins and lands in the studio as a designer', async () => {
+    const lead = await newPage();
+    await signIn(lead, account('lead').email, DEMO_PASSWORD);
+    await lead.getByRole('link', { name: 'Members' }).click();
+    await lead.getByRole('heading', { name: /Members/ }).first().waitFor();
+    await lead.getByLabel('E-mail').fill('idris@kestrel-lantern.example');
+    await lead.getByRole('combobox', { name: 'Role', exact: true }).selectOption('designer');
+    await lead.getByRole('button', { name: 'Send invitation' }).click();
+    await lead.getByText('idris@kestrel-lantern.example').first().waitFor();
+    await screenshots(lead, 'members');
+
+    const invitee = await newPage();
+    await invitee.goto('/dev/mailbox');
+    await invitee.getByText('Wren Halloway invited you to Kestrel Lantern Audio on Tautline').first().waitFor({ timeout: 15_000 });
+    await screenshots(invitee, 'mailbox');
+    await invitee.getByRole('link', { name: /invitations\/accept\?token=/ }).first().click();
+    await invitee.waitForURL(/\/invitations\/accept\?token=/);
+    await invitee.getByLabel('Your name').fill('Idris Vale');
+    await invitee.getByLabel('Password').fill('breakwater-lamp-3');
+    await screenshots(invitee, 'accept-invitation');
+    await invitee.getByRole('button', { name: 'Create account and join' }).click();
+    await invitee.waitForURL(/\/studios\/[0-9a-f-]+$/);
+    await invitee.getByRole('heading', { name: 'Kestrel Lantern Audio' }).waitFor();
+    await expect(invitee.getByText('Sessions · you are a designer here').isVisible()).resolves.toBe(true);
+    await expect(invitee.getByRole('combobox', { name: 'Studio' }).inputValue()).resolves.toMatch(/[0-9a-f-]+/);
+    await expect(invitee.getByRole('option', { name: 'Kestrel Lantern Audio (designer)' }).count()).resolves.toBe(1);
+  });
+
   it('uploads a valid and an invalid patch file as presets: the preset appears, the field error shows', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'tautline-e2e-files-'));
     const good = join(dir, 'harbour-bell-wire.json');
