@@ -2,17 +2,10 @@ import { randomUUID } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
+import type { MailboxMessageView } from '../../shared/api/responses';
 
-export interface MailboxMessage {
-  id: string;
-  to: string[];
-  from: string;
-  subject: string;
-  text: string;
-  /** Every http(s) link in the text, for the mailbox page and for tests. */
-  links: string[];
-  receivedAt: string;
-}
+/** What the mailbox keeps of each message (the same shape the API answers). */
+export type MailboxMessage = MailboxMessageView;
 
 export interface FakeMailbox {
   smtpUrl: string;

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Button } from '../../../components/button';
-import { cautionSeen, markCautionSeen, MASTER_VOLUME_DB, playUrl, setMasterVolumeDb, stopPlayback, storedMasterVolumeDb } from '../audio-output';
+import { cautionSeen, markCautionSeen, playUrl, stopPlayback } from '../audio-output';
+import { MasterVolume } from './master-volume';
 
 /**
  * Plays a preview. The first play anywhere in the app asks the listener to turn their speakers
@@ -9,7 +10,6 @@ import { cautionSeen, markCautionSeen, MASTER_VOLUME_DB, playUrl, setMasterVolum
 export function AuditionButton({ url, label }: { url: string; label: string }) {
   const [asking, setAsking] = useState(false);
   const [state, setState] = useState<'idle' | 'loading' | 'playing' | 'failed'>('idle');
-  const [volumeDb, setVolumeDb] = useState(storedMasterVolumeDb);
 
   const play = async () => {
     setState('loading');
@@ -47,21 +47,9 @@ export function AuditionButton({ url, label }: { url: string; label: string }) {
             Before the first sound
           </p>
           <p className="mt-1">Audio can be loud and can hurt hearing and speakers. Turn your speakers or headphones down, then raise the level slowly.</p>
-          <label className="mt-2 flex items-center gap-2">
-            Master volume
-            <input
-              type="range"
-              min={MASTER_VOLUME_DB.min}
-              max={MASTER_VOLUME_DB.max}
-              step={1}
-              value={volumeDb}
-              onChange={(event) => {
-                setVolumeDb(Number(event.target.value));
-                void setMasterVolumeDb(Number(event.target.value));
-              }}
-            />
-            <span className="tabular-nums">{volumeDb} dB</span>
-          </label>
+          <div className="mt-2">
+            <MasterVolume />
+          </div>
           <div className="mt-2 flex gap-2">
             <Button
               onClick={() => {
