@@ -96,7 +96,7 @@ describe('the studio web app in a real browser', () => {
     await page.getByRole('link', { name: 'Gull cliff pluck, soft' }).waitFor();
     await page.getByRole('link', { name: 'Gull cliff pluck, soft' }).click();
     await page.waitForURL(/\/sessions\//);
-    await page.getByText('Fundamental').waitFor();
+    await page.getByRole('region', { name: 'People here' }).waitFor();
     await screenshots(page, 'session');
   });
 

@@ -1,14 +1,71 @@
+import { useCallback, useEffect, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
+import { movePoint } from '../../../shared/collab/point-edits';
+import { Button } from '../../components/button';
+import { ErrorBoundary } from '../../components/error-boundary';
 import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
-import { PageHeader } from '../../components/page-header';
+import { useMe } from '../../features/auth/api/get-me';
+import { useSessionConnection } from '../../features/collab/hooks/use-session-connection';
+import { LossesPanel, PickupPanel, RenderPanel, StringPanel } from '../../features/editor/components/patch-panels';
+import { PreviewAudition } from '../../features/editor/components/preview-audition';
+import { nextDisplayRangeM, StringCanvas } from '../../features/editor/components/string-canvas';
 import { useSession } from '../../features/sessions/api/get-session';
 
-/** A session: its patch at a glance, until the live editor (its own release) takes this page over. */
+/** Colours given to people in a session, picked by their name so everyone sees the same one. */
+const PEOPLE_COLOURS = ['#e8b64f', '#4cc7b8', '#ef8566', '#9b8cf2', '#7fc96b', '#f28cc6'];
+const colourFor = (name: string) => PEOPLE_COLOURS[[...name].reduce((sum, char) => sum + char.charCodeAt(0), 0) % PEOPLE_COLOURS.length];
+
+const connectionWords = { connecting: 'Connecting…', connected: 'Connected', reconnecting: 'Reconnecting…', offline: 'Offline' } as const;
+
+/** Width of an element, kept current (a callback ref, so it works for elements that mount later). */
+function useWidth<T extends HTMLElement>(): [(element: T | null) => void, number] {
+  const [width, setWidth] = useState(800);
+  const observer = useRef<ResizeObserver | null>(null);
+  const ref = useCallback((element: T | null) => {
+    observer.current?.disconnect();
+    if (!element) return;
+    observer.current = new ResizeObserver(([entry]) => setWidth(Math.max(320, Math.floor(entry.contentRect.width))));
+    observer.current.observe(element);
+  }, []);
+  return [ref, width];
+}
+
+function useDarkTheme(): boolean {
+  const [dark, setDark] = useState(() => document.documentElement.classList.contains('dark'));
+  useEffect(() => {
+    const observer = new MutationObserver(() => setDark(document.documentElement.classList.contains('dark')));
+    observer.observe(document.documentElement, { attributes: true, attributeFilter: ['class'] });
+    return () => observer.disconnect();
+  }, []);
+  return dark;
+}
+
+/** The live session editor: one string, shaped by several people at once, heard as it changes. */
 export default function SessionPage() {
   const { sessionId = '' } = useParams();
+  const me = useMe();
   const session = useSession(sessionId);
-  if (session.isPending) return <LoadingBlock label="Loading the session…" />;
+  const name = me.data?.user.displayName ?? 'someone';
+  const { connection, snapshot } = useSessionConnection(sessionId, { name, colour: colourFor(name) });
+  const [canvasBox, widthPx] = useWidth<HTMLDivElement>();
+  const dark = useDarkTheme();
+  const [selected, setSelected] = useState<number | null>(null);
+  const rangeRef = useRef<number | null>(null);
+
+  useEffect(() => {
+    const onKey = (event: KeyboardEvent) => {
+      if (!connection || (event.target as HTMLElement | null)?.closest('input, textarea, select')) return;
+      const undo = (event.ctrlKey || event.metaKey) && event.key.toLowerCase() === 'z';
+      if (undo && event.shiftKey) connection.redo();
+      else if (undo) connection.undo();
+      else return;
+      event.preventDefault();
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [connection]);
+
   if (session.isError) {
     return (
       <Notice tone="error" title="Cannot open this session">
@@ -16,28 +73,95 @@ export default function SessionPage() {
       </Notice>
     );
   }
-  const { patch } = session.data;
-  const f0Hz = Math.sqrt(patch.string.tensionN / patch.string.linearDensityKgPerM) / (2 * patch.string.lengthM);
+  if (!connection || !snapshot || !session.data) return <LoadingBlock label="Opening the session…" rows={6} />;
+  const { patch, readOnly } = snapshot;
+  const peakM = patch ? Math.max(...patch.excitation.displacementM.map(([, y]) => Math.abs(y))) : 0;
+  rangeRef.current = nextDisplayRangeM(rangeRef.current, peakM);
+  const displayRangeM = rangeRef.current;
+
+  /** Arrow keys move the selected point: 1 mm, or 0.1 mm with Shift. */
+  const onCanvasKey = (event: React.KeyboardEvent) => {
+    if (selected === null || !patch || readOnly) return;
+    const step = (event.shiftKey ? 0.1 : 1) / 1000;
+    const [x, y] = patch.excitation.displacementM[selected + 1] ?? [];
+    if (x === undefined) return;
+    const moves: Record<string, [number, number]> = { ArrowLeft: [-step, 0], ArrowRight: [step, 0], ArrowUp: [0, step / 10], ArrowDown: [0, -step / 10] };
+    const move = moves[event.key];
+    if (!move) return;
+    event.preventDefault();
+    connection.edit((doc, origin) => void movePoint(doc, 'displacement', selected, x + move[0], y + move[1], origin));
+  };
+
   return (
-    <>
-      <PageHeader title={session.data.name} subtitle={<Link className="underline" to={`/studios/${session.data.studioId}`}>Back to the sessions</Link>} />
-      <Notice>The live editor for this session arrives in the next release. Here is its string as saved.</Notice>
-      <dl className="mt-6 grid max-w-xl grid-cols-2 gap-x-6 gap-y-2 text-sm">
-        <dt className="font-semibold">Length</dt>
-        <dd>{(patch.string.lengthM * 1000).toFixed(1)} mm</dd>
-        <dt className="font-semibold">Tension</dt>
-        <dd>{patch.string.tensionN.toFixed(2)} N</dd>
-        <dt className="font-semibold">Fundamental</dt>
-        <dd>{f0Hz.toFixed(2)} Hz</dd>
-        <dt className="font-semibold">Pickup</dt>
-        <dd>
-          {patch.pickup.output} at {(patch.pickup.positionM * 1000).toFixed(1)} mm
-        </dd>
-        <dt className="font-semibold">Render</dt>
-        <dd>
-          {patch.render.durationS} s at {patch.render.sampleRateHz / 1000} kHz, up to {patch.render.maxModes} modes
-        </dd>
-      </dl>
-    </>
+    <div className="flex flex-col gap-4">
+      <header className="flex flex-wrap items-center gap-3">
+        <div className="mr-auto">
+          <h1 className="text-2xl font-semibold">{session.data.name}</h1>
+          <Link className="text-sm underline" to={`/studios/${session.data.studioId}`}>
+            Back to the sessions
+          </Link>
+        </div>
+        <span role="status" className="rounded-full bg-slate-700/10 px-3 py-1 text-sm dark:bg-slate-100/10" data-testid="connection-state">
+          {connectionWords[snapshot.connection]}
+          {snapshot.hasPendingEdits ? ' · edits waiting to sync' : ''}
+        </span>
+        <Button variant="secondary" onClick={() => connection.undo()} disabledReason={readOnly ? 'read-only' : snapshot.canUndo ? undefined : 'nothing of yours to undo'} aria-keyshortcuts="Control+Z">
+          Undo
+        </Button>
+        <Button variant="secondary" onClick={() => connection.redo()} disabledReason={readOnly ? 'read-only' : snapshot.canRedo ? undefined : 'nothing to redo'} aria-keyshortcuts="Control+Shift+Z">
+          Redo
+        </Button>
+      </header>
+
+      {readOnly && <Notice tone="caution">You can watch and listen: your role ({snapshot.role}) does not edit sessions.</Notice>}
+
+      <section aria-label="People here" className="flex flex-wrap items-center gap-2 text-sm">
+        <span className="font-semibold">Here:</span>
+        <span className="inline-flex items-center gap-1">
+          <span className="size-2.5 rounded-full" style={{ background: colourFor(name) }} aria-hidden="true" /> {name} (you{snapshot.role ? `, ${snapshot.role}` : ''})
+        </span>
+        {snapshot.peers.map((peer) => (
+          <span key={peer.clientId} className="inline-flex items-center gap-1" data-testid="peer">
+            <span className="size-2.5 rounded-full" style={{ background: peer.colour }} aria-hidden="true" /> {peer.name}
+            {peer.dragging ? ' (dragging)' : ''}
+          </span>
+        ))}
+      </section>
+
+      <ErrorBoundary title="The string canvas">
+        <div ref={canvasBox} data-display-range-m={displayRangeM} tabIndex={0} onKeyDown={onCanvasKey} aria-label="String canvas: drag points, click the line to add one, double-click a point to remove it; arrow keys move the selected point" className="rounded-lg border border-slate-700/15 focus-visible:outline-2 focus-visible:outline-teal-400 dark:border-slate-300/10">
+          {patch ? (
+            <StringCanvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={null} displayRangeM={displayRangeM} selected={selected} onSelect={setSelected} dark={dark} />
+          ) : (
+            <LoadingBlock label="Syncing the string…" rows={3} />
+          )}
+        </div>
+      </ErrorBoundary>
+      {snapshot.patchIssues.length > 0 && (
+        <Notice tone="error" title="The string has a problem">
+          {snapshot.patchIssues.map((issue) => issue.message).join('; ')}
+        </Notice>
+      )}
+
+      <ErrorBoundary title="Audition">
+        <PreviewAudition result={snapshot.result} />
+      </ErrorBoundary>
+
+      {snapshot.result && (
+        <p className="text-sm" data-testid="result-figures">
+          f0 {snapshot.result.f0Hz.toFixed(1)} Hz · {snapshot.result.modeCount} modes · mode 1 level{' '}
+          {snapshot.result.energyJ[0] > 0 ? (10 * Math.log10(snapshot.result.energyJ[0] / snapshot.result.totalEnergyJ)).toFixed(2) : '—'} dB of the total energy
+        </p>
+      )}
+
+      {patch && (
+        <div className="grid gap-3 lg:grid-cols-2">
+          <StringPanel connection={connection} patch={patch} readOnly={readOnly} />
+          <LossesPanel connection={connection} patch={patch} readOnly={readOnly} />
+          <PickupPanel connection={connection} patch={patch} readOnly={readOnly} />
+          <RenderPanel connection={connection} patch={patch} readOnly={readOnly} />
+        </div>
+      )}
+    </div>
   );
 }

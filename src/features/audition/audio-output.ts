@@ -61,6 +61,25 @@ export async function playUrl(url: string): Promise<{ durationS: number }> {
   return { durationS: buffer.duration };
 }
 
+/**
+ * Plays samples computed at `sampleRateHz` (the server's preview) through the master volume and
+ * limiter. The buffer is built at that rate, so it plays at the right pitch and length whatever
+ * the audio context's own rate is.
+ */
+export async function playSamples(samples: Float32Array, sampleRateHz: number, loop = false): Promise<{ durationS: number; contextState: string; bufferSampleRateHz: number; bufferLength: number }> {
+  const out = await ensureOutput();
+  out.player?.stop();
+  out.player?.dispose();
+  const raw = out.tone.getContext().rawContext.createBuffer(1, samples.length, sampleRateHz);
+  raw.copyToChannel(samples as Float32Array<ArrayBuffer>, 0);
+  const buffer = new out.tone.ToneAudioBuffer(raw as AudioBuffer);
+  const player = new out.tone.Player(buffer).connect(out.volume);
+  player.loop = loop;
+  out.player = player;
+  player.start();
+  return { durationS: buffer.duration, contextState: out.tone.getContext().state, bufferSampleRateHz: raw.sampleRate, bufferLength: raw.length };
+}
+
 export async function stopPlayback(): Promise<void> {
   if (!output) return;
   const out = await output;

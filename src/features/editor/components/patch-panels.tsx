@@ -1,0 +1,147 @@
+import type { Patch } from '../../../../shared/patch/patch-schema';
+import { patchDoc } from '../../../../shared/collab/patch-doc';
+import { setLengthM } from '../../../../shared/collab/point-edits';
+import { dampingFromT60, t60AtFrequency } from '../../../../shared/designer/damping-from-t60';
+import { tensionForPitchN } from '../../../../shared/designer/tension-for-pitch';
+import { tensionSafety } from '../../../../shared/designer/tension-safety';
+import type { MaterialId } from '../../../../shared/designer/materials';
+import { fundamentalFrequencyHz } from '../../../../shared/engine/mode-frequencies';
+import { LIMITS } from '../../../../shared/limits';
+import { Notice } from '../../../components/notice';
+import type { SessionConnection } from '../../collab/api/session-connection';
+import { NumberField } from './number-field';
+
+interface PanelProps {
+  connection: SessionConnection;
+  patch: Patch;
+  readOnly: boolean;
+}
+
+const positive = (value: number, what: string) => (value > 0 ? null : `${what} must be > 0`);
+
+function Section({ title, children }: { title: string; children: React.ReactNode }) {
+  return (
+    <section aria-label={title} className="rounded-lg border border-slate-700/15 p-3 dark:border-slate-300/10">
+      <h2 className="mb-2 text-sm font-semibold">{title}</h2>
+      <div className="flex flex-wrap gap-3">{children}</div>
+    </section>
+  );
+}
+
+/** The string: length, pitch or tension (the other derived), density, stiffness; a caution near breaking. */
+export function StringPanel({ connection, patch, readOnly }: PanelProps) {
+  const set = (key: string, value: number) => connection.edit((doc) => patchDoc(doc).string.set(key, value));
+  const f0 = fundamentalFrequencyHz(patch.string);
+  const design = (patch as { design?: { material?: MaterialId; diameterM?: number; core?: { material: MaterialId; diameterM: number } } }).design;
+  const solid = design?.core ?? (design?.material && design.diameterM ? { material: design.material, diameterM: design.diameterM } : null);
+  const safety = solid ? tensionSafety(patch.string.tensionN, solid.diameterM, solid.material) : null;
+  return (
+    <Section title="String">
+      <NumberField label="Length" unit="mm" value={patch.string.lengthM * 1000} disabled={readOnly} onCommit={(mm) => positive(mm, 'Length') ?? (connection.edit((doc, origin) => void setLengthM(doc, mm / 1000, origin)), null)} />
+      <NumberField
+        label="Pitch (f0)"
+        unit="Hz"
+        value={f0}
+        disabled={readOnly}
+        hint="Sets the tension"
+        onCommit={(hz) => positive(hz, 'Pitch') ?? (set('tensionN', tensionForPitchN(patch.string.lengthM, patch.string.linearDensityKgPerM, hz)), null)}
+      />
+      <NumberField label="Tension" unit="N" value={patch.string.tensionN} disabled={readOnly} onCommit={(n) => positive(n, 'Tension') ?? (set('tensionN', n), null)} />
+      <NumberField label="Linear density" unit="kg/m" value={patch.string.linearDensityKgPerM} disabled={readOnly} onCommit={(v) => positive(v, 'Density') ?? (set('linearDensityKgPerM', v), null)} />
+      <NumberField
+        label="Stiffness B"
+        unit=""
+        value={patch.string.inharmonicityB}
+        disabled={readOnly}
+        onCommit={(b) => (b >= 0 && b <= LIMITS.maxInharmonicityB ? (set('inharmonicityB', b), null) : `B must be between 0 and ${LIMITS.maxInharmonicityB}`)}
+      />
+      {safety && safety.level !== 'ok' && (
+        <div className="w-full">
+          <Notice tone={safety.level === 'caution' || safety.level === 'unknown' ? 'caution' : 'error'} title="Tension caution">
+            {safety.message}
+          </Notice>
+        </div>
+      )}
+    </Section>
+  );
+}
+
+/** Losses: two decay-time targets (what designers think in), with the b1 and b2 they give for the expert. */
+export function LossesPanel({ connection, patch, readOnly }: PanelProps) {
+  const f0 = fundamentalFrequencyHz(patch.string);
+  const high = Math.min(4000, patch.render.sampleRateHz / 4);
+  const lowT60 = t60AtFrequency(patch.damping, patch.string, f0) ?? Infinity;
+  const highT60 = t60AtFrequency(patch.damping, patch.string, high) ?? Infinity;
+  const apply = (lowT60S: number, highT60S: number) => {
+    const result = dampingFromT60({ lowFrequencyHz: f0, lowT60S, highFrequencyHz: high, highT60S }, patch.string);
+    if (!result.ok) return result.issues[0].message;
+    connection.edit((doc) => {
+      patchDoc(doc).damping.set('b1PerS', result.value.b1PerS);
+      patchDoc(doc).damping.set('b2M2PerS', result.value.b2M2PerS);
+    });
+    return null;
+  };
+  return (
+    <Section title="Losses">
+      <NumberField label={`Decay time at f0 (${f0.toFixed(0)} Hz)`} unit="s" value={lowT60} digits={3} disabled={readOnly} onCommit={(t) => apply(t, Math.min(t, highT60))} />
+      <NumberField label={`Decay time at ${high} Hz`} unit="s" value={highT60} digits={3} disabled={readOnly} onCommit={(t) => apply(lowT60, t)} />
+      <p className="w-full text-xs text-slate-600 dark:text-slate-300">
+        b1 = {patch.damping.b1PerS.toPrecision(4)} s⁻¹ · b2 = {patch.damping.b2M2PerS.toPrecision(4)} m²/s (two-coefficient loss model)
+      </p>
+    </Section>
+  );
+}
+
+/** The pickup: where it reads, and what. */
+export function PickupPanel({ connection, patch, readOnly }: PanelProps) {
+  return (
+    <Section title="Pickup">
+      <NumberField
+        label="Position"
+        unit="mm"
+        value={patch.pickup.positionM * 1000}
+        disabled={readOnly}
+        onCommit={(mm) => (mm > 0 && mm < patch.string.lengthM * 1000 ? (connection.edit((doc) => patchDoc(doc).pickup.set('positionM', mm / 1000)), null) : 'Position must lie between the supports')}
+      />
+      <label className="flex flex-col gap-0.5 text-xs font-semibold">
+        Reads
+        <select
+          value={patch.pickup.output}
+          disabled={readOnly}
+          onChange={(event) => connection.edit((doc) => patchDoc(doc).pickup.set('output', event.target.value))}
+          className="rounded border border-slate-700/30 bg-white px-2 py-1 text-sm font-normal dark:border-slate-300/20 dark:bg-slate-900"
+        >
+          <option value="displacement">displacement</option>
+          <option value="velocity">velocity</option>
+          <option value="force">force on the support</option>
+        </select>
+      </label>
+    </Section>
+  );
+}
+
+/** Render settings of the patch (the live preview is at most 4 s at 48 kHz). */
+export function RenderPanel({ connection, patch, readOnly }: PanelProps) {
+  const set = (key: string, value: number) => connection.edit((doc) => patchDoc(doc).render.set(key, value));
+  return (
+    <Section title="Render">
+      <NumberField label="Duration" unit="s" value={patch.render.durationS} disabled={readOnly} onCommit={(s) => (s > 0 && s <= LIMITS.maxDurationS ? (set('durationS', s), null) : `Duration must be in (0, ${LIMITS.maxDurationS}] s`)} />
+      <label className="flex flex-col gap-0.5 text-xs font-semibold">
+        Sample rate
+        <select
+          value={patch.render.sampleRateHz}
+          disabled={readOnly}
+          onChange={(event) => set('sampleRateHz', Number(event.target.value))}
+          className="rounded border border-slate-700/30 bg-white px-2 py-1 text-sm font-normal dark:border-slate-300/20 dark:bg-slate-900"
+        >
+          {LIMITS.sampleRatesHz.map((rate) => (
+            <option key={rate} value={rate}>
+              {rate / 1000} kHz
+            </option>
+          ))}
+        </select>
+      </label>
+      <NumberField label="Most modes" unit="" value={patch.render.maxModes} disabled={readOnly} onCommit={(n) => (Number.isInteger(n) && n >= 1 && n <= LIMITS.maxModes ? (set('maxModes', n), null) : `A whole number 1–${LIMITS.maxModes}`)} />
+    </Section>
+  );
+}

@@ -1,0 +1,175 @@
+import { useMemo } from 'react';
+import { Circle, Group, Layer, Line, Rect, Stage, Text } from 'react-konva';
+import { deletePoint, insertPoint, movePoint } from '../../../../shared/collab/point-edits';
+import { patchDoc } from '../../../../shared/collab/patch-doc';
+import type { Patch } from '../../../../shared/patch/patch-schema';
+import type { Presence, SessionConnection } from '../../collab/api/session-connection';
+
+export interface StringCanvasProps {
+  connection: SessionConnection;
+  patch: Patch;
+  readOnly: boolean;
+  peers: Array<Presence & { clientId: number }>;
+  widthPx: number;
+  heightPx: number;
+  /** Mode whose shape is drawn over the string (hovered in the mode chart). */
+  highlightMode: number | null;
+  /** Displacement drawn at the top edge of the drawing area, metres (vertical exaggeration). */
+  displayRangeM: number;
+  selected: number | null;
+  onSelect: (index: number | null) => void;
+  dark: boolean;
+}
+
+export const CANVAS_MARGIN_PX = 36;
+const MARGIN_PX = CANVAS_MARGIN_PX;
+
+/**
+ * The string between its supports, true length along the axis (with a millimetre scale), the
+ * initial displacement exaggerated vertically. Points drag (clamped between their neighbours by
+ * the shared edit helpers); a click on the line adds a point; the pickup is a handle on the axis.
+ * Teammates' pointers and the points they drag show in their colours.
+ */
+export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heightPx, highlightMode, displayRangeM, selected, onSelect, dark }: StringCanvasProps) {
+  const lengthM = patch.string.lengthM;
+  const points = patch.excitation.displacementM;
+  const peakM = Math.max(1e-3, ...points.map(([, y]) => Math.abs(y)));
+  const midPx = heightPx / 2;
+  const scale = useMemo(() => {
+    const usable = widthPx - 2 * MARGIN_PX;
+    const half = heightPx / 2 - MARGIN_PX;
+    return {
+      xToPx: (xM: number) => MARGIN_PX + (xM / lengthM) * usable,
+      pxToX: (px: number) => ((px - MARGIN_PX) / usable) * lengthM,
+      yToPx: (yM: number) => heightPx / 2 - (yM / displayRangeM) * half,
+      pxToY: (px: number) => ((heightPx / 2 - px) / half) * displayRangeM,
+    };
+  }, [widthPx, heightPx, lengthM, displayRangeM]);
+
+  const colours = dark
+    ? { axis: '#323a4a', string: '#e8b64f', point: '#f2cf7e', text: '#b7bfcc', pickup: '#4cc7b8', mode: '#ef8566' }
+    : { axis: '#b7bfcc', string: '#a8741a', point: '#d49a2a', text: '#323a4a', pickup: '#1f8f82', mode: '#c24b2b' };
+
+  const flat = points.flatMap(([x, y]) => [scale.xToPx(x), scale.yToPx(y)]);
+  const ticks = millimetreTicks(lengthM);
+  const modeLine = useMemo(() => {
+    if (!highlightMode) return null;
+    const samples = 200;
+    const amplitude = peakM * 0.8;
+    const out: number[] = [];
+    for (let i = 0; i <= samples; i++) {
+      const x = (lengthM * i) / samples;
+      out.push(scale.xToPx(x), scale.yToPx(amplitude * Math.sin((highlightMode * Math.PI * x) / lengthM)));
+    }
+    return out;
+  }, [highlightMode, lengthM, peakM, scale]);
+
+  const edit = (change: Parameters<SessionConnection['edit']>[0]) => !readOnly && connection.edit(change);
+  const draggingBy = new Map(peers.filter((peer) => peer.dragging?.layer === 'displacement').map((peer) => [peer.dragging!.index + 1, peer]));
+
+  return (
+    <Stage
+      width={widthPx}
+      height={heightPx}
+      onMouseMove={(event) => {
+        const pointer = event.target.getStage()?.getPointerPosition();
+        if (pointer) connection.setPresence({ pointerXM: Math.min(lengthM, Math.max(0, scale.pxToX(pointer.x))) });
+      }}
+      onMouseLeave={() => connection.setPresence({ pointerXM: null })}
+    >
+      <Layer>
+        <Rect width={widthPx} height={heightPx} fill={dark ? '#171b22' : '#ffffff'} />
+        <Line points={[MARGIN_PX, midPx, widthPx - MARGIN_PX, midPx]} stroke={colours.axis} strokeWidth={1} />
+        {ticks.map((tickM) => (
+          <Group key={tickM}>
+            <Line points={[scale.xToPx(tickM), heightPx - MARGIN_PX + 6, scale.xToPx(tickM), heightPx - MARGIN_PX + 12]} stroke={colours.text} strokeWidth={1} />
+            <Text x={scale.xToPx(tickM) - 20} y={heightPx - MARGIN_PX + 14} width={40} align="center" text={`${Math.round(tickM * 1000)}`} fontSize={10} fill={colours.text} />
+          </Group>
+        ))}
+        <Text x={widthPx - MARGIN_PX - 60} y={heightPx - 14} width={60} align="right" text="mm" fontSize={10} fill={colours.text} />
+        <Text x={4} y={4} text={`±${(displayRangeM * 1000).toFixed(1)} mm (exaggerated)`} fontSize={10} fill={colours.text} />
+        {[0, lengthM].map((xM) => (
+          <Rect key={xM} x={scale.xToPx(xM) - 3} y={midPx - 14} width={6} height={28} fill={colours.text} cornerRadius={1} />
+        ))}
+        {modeLine && <Line points={modeLine} stroke={colours.mode} strokeWidth={1.5} dash={[6, 4]} opacity={0.8} />}
+        <Line
+          points={flat}
+          stroke={colours.string}
+          strokeWidth={2.5}
+          hitStrokeWidth={14}
+          onClick={(event) => {
+            const pointer = event.target.getStage()?.getPointerPosition();
+            if (!pointer) return;
+            edit((doc, origin) => void insertPoint(doc, 'displacement', scale.pxToX(pointer.x), scale.pxToY(pointer.y), origin));
+          }}
+        />
+        {/* Interior points: index i in the document is point i + 1 of the polyline. */}
+        {points.slice(1, -1).map(([xM, yM], docIndex) => {
+          const peer = draggingBy.get(docIndex + 1);
+          return (
+            <Group key={docIndex}>
+              {peer && <Circle x={scale.xToPx(xM)} y={scale.yToPx(yM)} radius={12} stroke={peer.colour} strokeWidth={2} />}
+              <Circle
+                x={scale.xToPx(xM)}
+                y={scale.yToPx(yM)}
+                radius={selected === docIndex ? 8 : 6}
+                fill={colours.point}
+                stroke={selected === docIndex ? colours.pickup : undefined}
+                strokeWidth={2}
+                draggable={!readOnly}
+                name={`point-${docIndex}`}
+                onMouseDown={() => onSelect(docIndex)}
+                onDblClick={() => edit((doc, origin) => void deletePoint(doc, 'displacement', docIndex, origin))}
+                onDragStart={() => connection.setPresence({ dragging: { layer: 'displacement', index: docIndex } })}
+                onDragMove={(event) => {
+                  const node = event.target;
+                  edit((doc, origin) => void movePoint(doc, 'displacement', docIndex, scale.pxToX(node.x()), scale.pxToY(node.y()), origin));
+                }}
+                onDragEnd={() => connection.setPresence({ dragging: null })}
+              />
+            </Group>
+          );
+        })}
+        <Group
+          x={scale.xToPx(patch.pickup.positionM)}
+          y={midPx}
+          draggable={!readOnly}
+          dragBoundFunc={(position) => ({ x: Math.min(widthPx - MARGIN_PX - 1, Math.max(MARGIN_PX + 1, position.x)), y: midPx })}
+          onDragMove={(event) => edit((doc) => patchDoc(doc).pickup.set('positionM', Math.min(lengthM * 0.999, Math.max(lengthM * 0.001, scale.pxToX(event.target.x())))))}
+          name="pickup"
+        >
+          <Line points={[0, -22, -7, -34, 7, -34]} closed fill={colours.pickup} />
+          <Text x={-30} y={-48} width={60} align="center" text="pickup" fontSize={10} fill={colours.pickup} />
+        </Group>
+        {peers
+          .filter((peer) => peer.pointerXM !== null)
+          .map((peer) => (
+            <Group key={peer.clientId} x={scale.xToPx(peer.pointerXM as number)} y={MARGIN_PX / 2}>
+              <Line points={[0, 0, 0, heightPx - MARGIN_PX * 1.5]} stroke={peer.colour} strokeWidth={1} dash={[3, 3]} />
+              <Text x={4} y={0} text={peer.name} fontSize={11} fill={peer.colour} />
+            </Group>
+          ))}
+      </Layer>
+    </Stage>
+  );
+}
+
+/** Ticks every 1, 2 or 5 × 10^k millimetres, about eight along the string. */
+function millimetreTicks(lengthM: number): number[] {
+  const rough = lengthM / 8;
+  const power = 10 ** Math.floor(Math.log10(rough));
+  const step = [1, 2, 5, 10].map((m) => m * power).find((candidate) => candidate >= rough) ?? rough;
+  const ticks: number[] = [];
+  for (let x = 0; x <= lengthM + step * 1e-9; x += step) ticks.push(Number(x.toFixed(9)));
+  return ticks;
+}
+
+/**
+ * The vertical scale keeps still while someone drags (so a point stays under the pointer) and
+ * changes only when the shape outgrows it or shrinks to under a third of it.
+ */
+export function nextDisplayRangeM(currentM: number | null, peakM: number): number {
+  const wanted = Math.max(1e-3, peakM) * 1.6;
+  if (currentM === null || peakM > currentM * 0.95 || peakM < currentM / 3) return wanted;
+  return currentM;
+}

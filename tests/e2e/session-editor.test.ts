@@ -1,0 +1,134 @@
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Patch } from '../../shared/patch/patch-schema';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
+import { startAppProcess, type AppProcess } from '../support/app-process';
+import { launchBrowser } from '../support/browser';
+import { PROJECT_ROOT } from '../support/run-cli';
+import { testPatch } from '../support/patches';
+
+const SHOTS = join(PROJECT_ROOT, 'test-results', 'screenshots');
+const MARGIN_PX = 36;
+const HEIGHT_PX = 300;
+
+let app: AppProcess;
+let browser: Browser;
+const contexts: BrowserContext[] = [];
+
+beforeAll(async () => {
+  mkdirSync(SHOTS, { recursive: true });
+  app = await startAppProcess();
+  browser = await launchBrowser();
+}, 180_000);
+
+afterAll(async () => {
+  for (const context of contexts) await context.close();
+  await browser?.close();
+  await app?.stop();
+});
+
+async function signedInPage(role: string): Promise<Page> {
+  const context = await browser.newContext({ baseURL: app.baseUrl, viewport: { width: 1280, height: 1000 } });
+  contexts.push(context);
+  const page = await context.newPage();
+  const account = DEMO_ACCOUNTS.find((candidate) => candidate.role === role)!;
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(account.email);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('link', { name: 'Lighthouse stair climb' }).waitFor();
+  return page;
+}
+
+async function openSession(page: Page): Promise<string> {
+  await page.getByRole('link', { name: 'Lighthouse stair climb' }).click();
+  await page.waitForURL(/\/sessions\//);
+  await page.getByTestId('result-figures').waitFor({ timeout: 20_000 });
+  return page.url().split('/sessions/')[1];
+}
+
+async function storedPatch(page: Page, sessionId: string): Promise<Patch> {
+  const response = await page.request.get(`/api/sessions/${sessionId}`);
+  return (await response.json()).session.patch as Patch;
+}
+
+/** Where the tallest interior point of the pluck is drawn, from the same mapping the canvas uses. */
+async function pluckPointPx(page: Page, patch: Patch): Promise<{ x: number; y: number; index: number }> {
+  const box = (await page.locator('canvas').first().boundingBox())!;
+  const interior = patch.excitation.displacementM.slice(1, -1);
+  const index = interior.reduce((best, point, i) => (Math.abs(point[1]) > Math.abs(interior[best][1]) ? i : best), 0);
+  const range = Number(await page.locator('[data-display-range-m]').getAttribute('data-display-range-m'));
+  const [xM, yM] = interior[index];
+  const x = box.x + MARGIN_PX + (xM / patch.string.lengthM) * (box.width - 2 * MARGIN_PX);
+  const y = box.y + HEIGHT_PX / 2 - (yM / range) * (HEIGHT_PX / 2 - MARGIN_PX);
+  return { x, y, index };
+}
+
+async function drag(page: Page, from: { x: number; y: number }, dxPx: number): Promise<void> {
+  await page.mouse.move(from.x, from.y);
+  await page.mouse.down();
+  for (let step = 1; step <= 10; step++) await page.mouse.move(from.x + (dxPx * step) / 10, from.y, { steps: 1 });
+  await page.mouse.up();
+}
+
+describe('the live session editor in a real browser', () => {
+  it('a designer drags the pluck, a teammate sees it live with presence, a listener cannot, audition plays, undo restores', async () => {
+    const designer = await signedInPage('designer');
+    const lead = await signedInPage('lead');
+    const sessionId = await openSession(designer);
+    await openSession(lead);
+    await designer.getByTestId('peer').filter({ hasText: 'Wren Halloway' }).waitFor({ timeout: 10_000 });
+    await lead.getByTestId('peer').filter({ hasText: 'Tamsin Okafor' }).waitFor({ timeout: 10_000 });
+
+    // Start from a plain pluck so the dragged point has room to move.
+    const figuresFirst = await lead.getByTestId('result-figures').textContent();
+    const plain = testPatch({ name: 'Plain pluck', render: { sampleRateHz: 48000, durationS: 2, maxModes: 4096 } });
+    expect((await designer.request.patch(`/api/sessions/${sessionId}`, { data: { patch: plain } })).status()).toBe(200);
+    await expect.poll(() => lead.getByTestId('result-figures').textContent(), { timeout: 15_000 }).not.toBe(figuresFirst);
+    await designer.waitForTimeout(300);
+    const before = await storedPatch(designer, sessionId);
+    const figuresBefore = await lead.getByTestId('result-figures').textContent();
+    const point = await pluckPointPx(designer, before);
+    await drag(designer, point, 80);
+
+    // The lead's mode figures change once the drag reaches the server and the compute comes back.
+    await expect.poll(() => lead.getByTestId('result-figures').textContent(), { timeout: 15_000 }).not.toBe(figuresBefore);
+    let after = before;
+    for (let attempt = 0; attempt < 40 && after.excitation.displacementM[point.index + 1][0] === before.excitation.displacementM[point.index + 1][0]; attempt++) {
+      await designer.waitForTimeout(100);
+      after = await storedPatch(designer, sessionId);
+    }
+    expect(after.excitation.displacementM[point.index + 1][0]).toBeGreaterThan(before.excitation.displacementM[point.index + 1][0]);
+    await lead.screenshot({ path: join(SHOTS, 'editor-two-people-light.png'), fullPage: true });
+    await lead.emulateMedia({ colorScheme: 'dark' });
+    await lead.waitForTimeout(100);
+    await lead.screenshot({ path: join(SHOTS, 'editor-two-people-dark.png'), fullPage: true });
+
+    // A listener's drag changes nothing, and the page says why.
+    const listener = await signedInPage('listener');
+    await openSession(listener);
+    await listener.getByText('You can watch and listen').waitFor();
+    const listenerPoint = await pluckPointPx(listener, after);
+    await drag(listener, listenerPoint, -120);
+    await listener.waitForTimeout(500);
+    expect((await storedPatch(listener, sessionId)).excitation.displacementM).toEqual(after.excitation.displacementM);
+
+    // Audition: the first play asks first; then the buffer plays at the server's rate and length.
+    await designer.getByRole('button', { name: 'Play preview' }).click();
+    await designer.getByRole('button', { name: 'Play at this level' }).click();
+    const info = await designer.getByTestId('audition-info').textContent({ timeout: 10_000 });
+    const previewSamples = Math.round(Math.min(after.render.durationS, 4) * Math.min(after.render.sampleRateHz, 48000));
+    expect(info).toBe(`${previewSamples} samples at ${Math.min(after.render.sampleRateHz, 48000)} Hz · audio running`);
+
+    // Undo brings the point back for everyone.
+    await designer.getByRole('button', { name: 'Undo' }).click();
+    let undone = after;
+    for (let attempt = 0; attempt < 40 && undone.excitation.displacementM[point.index + 1][0] !== before.excitation.displacementM[point.index + 1][0]; attempt++) {
+      await designer.waitForTimeout(100);
+      undone = await storedPatch(designer, sessionId);
+    }
+    expect(undone.excitation.displacementM[point.index + 1][0]).toBeCloseTo(before.excitation.displacementM[point.index + 1][0], 12);
+  }, 90_000);
+});
