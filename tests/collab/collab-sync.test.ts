@@ -157,6 +157,22 @@ describe('REST edits of a live session', () => {
   });
 });
 
+describe('undo of a drag', () => {
+  it('undoes a whole drag in one step, however long it lasted', async () => {
+    const a = client('designer');
+    await waitForSnapshot(a, (s) => s.synced && s.patch !== null, 5000, 'synced');
+    const start = a.getSnapshot().patch!.damping.b1PerS;
+    a.beginGesture();
+    for (const value of [1.1, 1.2, 1.3]) {
+      a.edit((doc) => patchDoc(doc).damping.set('b1PerS', value));
+      await new Promise((resolve) => setTimeout(resolve, 350)); // longer than the 300 ms capture window
+    }
+    a.endGesture();
+    a.undo();
+    await waitForSnapshot(a, (s) => s.patch?.damping.b1PerS === start, 5000, 'whole drag undone');
+  });
+});
+
 describe('who may connect', () => {
   it('refuses no token and bad tokens (401), foreign and unknown sessions (404), archived ones (410); members connect', async () => {
     expect(await rawUpgrade(`/collab/${fixture.sessionId}`)).toEqual({ status: 401 });

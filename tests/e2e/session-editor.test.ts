@@ -131,4 +131,25 @@ describe('the live session editor in a real browser', () => {
     }
     expect(undone.excitation.displacementM[point.index + 1][0]).toBeCloseTo(before.excitation.displacementM[point.index + 1][0], 12);
   }, 90_000);
+
+  it('lays down a rounded pluck of the given position, height and contact width', async () => {
+    const designer = await signedInPage('designer');
+    const sessionId = await openSession(designer);
+    const tool = designer.getByRole('region', { name: 'Pluck tool' });
+    await tool.getByLabel('Position').fill('200');
+    await tool.getByLabel('Position').press('Enter');
+    await tool.getByLabel('Height').fill('2.5');
+    await tool.getByLabel('Height').press('Enter');
+    await tool.getByRole('button', { name: 'Lay down pluck' }).click();
+    let patch = await storedPatch(designer, sessionId);
+    for (let attempt = 0; attempt < 40 && !patch.excitation.displacementM.some(([x, y]) => Math.abs(x - 0.2) < 1e-9 && Math.abs(y - 0.0025) < 1e-9); attempt++) {
+      await designer.waitForTimeout(100);
+      patch = await storedPatch(designer, sessionId);
+    }
+    const peak = patch.excitation.displacementM.reduce((best, point) => (point[1] > best[1] ? point : best));
+    expect(peak[0]).toBeCloseTo(0.2, 9);
+    expect(peak[1]).toBeCloseTo(0.0025, 9);
+    expect(patch.excitation.displacementM.length).toBeGreaterThan(10);
+    await designer.screenshot({ path: join(SHOTS, 'editor-pluck-light.png'), fullPage: true });
+  }, 60_000);
 });

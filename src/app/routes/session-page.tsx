@@ -8,6 +8,7 @@ import { Notice } from '../../components/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { useSessionConnection } from '../../features/collab/hooks/use-session-connection';
 import { LossesPanel, PickupPanel, RenderPanel, StringPanel } from '../../features/editor/components/patch-panels';
+import { PluckTool } from '../../features/editor/components/pluck-tool';
 import { PreviewAudition } from '../../features/editor/components/preview-audition';
 import { nextDisplayRangeM, StringCanvas } from '../../features/editor/components/string-canvas';
 import { useSession } from '../../features/sessions/api/get-session';
@@ -153,6 +154,8 @@ export default function SessionPage() {
           {snapshot.result.energyJ[0] > 0 ? (10 * Math.log10(snapshot.result.energyJ[0] / snapshot.result.totalEnergyJ)).toFixed(2) : '—'} dB of the total energy
         </p>
       )}
+
+      {patch && <PluckTool connection={connection} patch={patch} readOnly={readOnly} />}
 
       {patch && (
         <div className="grid gap-3 lg:grid-cols-2">

@@ -81,6 +81,9 @@ export function decodeComputeResult(message: ComputeResultMessage<ArrayBuffer | 
   };
 }
 
+/** Edits closer together than this become one undo step (typing a number, nudging with the keys). */
+const CAPTURE_TIMEOUT_MS = 300;
+
 /** Runs `work` at most once per display frame (requestAnimationFrame in the browser, 16 ms elsewhere). */
 function frameCoalescer(work: () => void): { request: () => void; cancel: () => void } {
   let pending: ReturnType<typeof setTimeout> | number | null = null;
@@ -149,7 +152,7 @@ export class SessionConnection {
       ['meta', 'string', 'damping', 'pickup', 'render', 'displacement', 'velocity', 'extras'].map((key) =>
         key === 'displacement' || key === 'velocity' ? this.doc.getArray(key) : this.doc.getMap(key),
       ),
-      { trackedOrigins: new Set([this.localOrigin]), captureTimeout: 300 },
+      { trackedOrigins: new Set([this.localOrigin]), captureTimeout: CAPTURE_TIMEOUT_MS },
     );
 
     this.provider.on('status', ({ status }: { status: string }) => {
@@ -211,6 +214,17 @@ export class SessionConnection {
     if (this.snapshot.readOnly) return false;
     this.doc.transact(() => change(this.doc, this.localOrigin), this.localOrigin);
     return true;
+  }
+
+  /** Starts a gesture (a drag): everything until `endGesture` is one undo step. */
+  beginGesture(): void {
+    this.undoManager.stopCapturing();
+    this.undoManager.captureTimeout = Number.POSITIVE_INFINITY;
+  }
+
+  endGesture(): void {
+    this.undoManager.captureTimeout = CAPTURE_TIMEOUT_MS;
+    this.undoManager.stopCapturing();
   }
 
   undo(): void {

@@ -120,12 +120,18 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
                 name={`point-${docIndex}`}
                 onMouseDown={() => onSelect(docIndex)}
                 onDblClick={() => edit((doc, origin) => void deletePoint(doc, 'displacement', docIndex, origin))}
-                onDragStart={() => connection.setPresence({ dragging: { layer: 'displacement', index: docIndex } })}
+                onDragStart={() => {
+                  connection.beginGesture();
+                  connection.setPresence({ dragging: { layer: 'displacement', index: docIndex } });
+                }}
                 onDragMove={(event) => {
                   const node = event.target;
                   edit((doc, origin) => void movePoint(doc, 'displacement', docIndex, scale.pxToX(node.x()), scale.pxToY(node.y()), origin));
                 }}
-                onDragEnd={() => connection.setPresence({ dragging: null })}
+                onDragEnd={() => {
+                  connection.endGesture();
+                  connection.setPresence({ dragging: null });
+                }}
               />
             </Group>
           );
@@ -135,7 +141,15 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           y={midPx}
           draggable={!readOnly}
           dragBoundFunc={(position) => ({ x: Math.min(widthPx - MARGIN_PX - 1, Math.max(MARGIN_PX + 1, position.x)), y: midPx })}
+          onDragStart={() => {
+            connection.beginGesture();
+            connection.setPresence({ dragging: { layer: 'pickup', index: 0 } });
+          }}
           onDragMove={(event) => edit((doc) => patchDoc(doc).pickup.set('positionM', Math.min(lengthM * 0.999, Math.max(lengthM * 0.001, scale.pxToX(event.target.x())))))}
+          onDragEnd={() => {
+            connection.endGesture();
+            connection.setPresence({ dragging: null });
+          }}
           name="pickup"
         >
           <Line points={[0, -22, -7, -34, 7, -34]} closed fill={colours.pickup} />
