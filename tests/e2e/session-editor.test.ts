@@ -122,6 +122,10 @@ describe('the live session editor in a real browser', () => {
     const previewSamples = Math.round(Math.min(after.render.durationS, 4) * Math.min(after.render.sampleRateHz, 48000));
     expect(info).toBe(`${previewSamples} samples at ${Math.min(after.render.sampleRateHz, 48000)} Hz · audio running`);
 
+    // A note from the on-screen keyboard: the string retuned and rendered in the browser.
+    await designer.getByRole('button', { name: /^Play [A-G]#?\d$/ }).nth(14).click();
+    await expect.poll(() => designer.getByTestId('note-played').textContent(), { timeout: 10_000 }).toMatch(/^Played [A-G]#?\d \(\d+\.\d Hz\), computed in \d+ ms$/);
+
     // Undo brings the point back for everyone.
     await designer.getByRole('button', { name: 'Undo' }).click();
     let undone = after;

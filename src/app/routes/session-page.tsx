@@ -8,6 +8,7 @@ import { Notice } from '../../components/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { useSessionConnection } from '../../features/collab/hooks/use-session-connection';
 import { LossesPanel, PickupPanel, RenderPanel, StringPanel } from '../../features/editor/components/patch-panels';
+import { NoteKeyboard } from '../../features/editor/components/note-keyboard';
 import { PluckTool } from '../../features/editor/components/pluck-tool';
 import { PreviewAudition } from '../../features/editor/components/preview-audition';
 import { nextDisplayRangeM, StringCanvas } from '../../features/editor/components/string-canvas';
@@ -154,6 +155,8 @@ export default function SessionPage() {
           {snapshot.result.energyJ[0] > 0 ? (10 * Math.log10(snapshot.result.energyJ[0] / snapshot.result.totalEnergyJ)).toFixed(2) : '—'} dB of the total energy
         </p>
       )}
+
+      {patch && <NoteKeyboard patch={patch} />}
 
       {patch && <PluckTool connection={connection} patch={patch} readOnly={readOnly} />}
 
