@@ -12,6 +12,7 @@ import { NoteKeyboard } from '../../features/editor/components/note-keyboard';
 import { PluckTool } from '../../features/editor/components/pluck-tool';
 import { PreviewAudition } from '../../features/editor/components/preview-audition';
 import { nextDisplayRangeM, StringCanvas } from '../../features/editor/components/string-canvas';
+import { ResultsPanel } from '../../features/editor/results/results-panel';
 import { useSession } from '../../features/sessions/api/get-session';
 
 /** Colours given to people in a session, picked by their name so everyone sees the same one. */
@@ -53,6 +54,7 @@ export default function SessionPage() {
   const [canvasBox, widthPx] = useWidth<HTMLDivElement>();
   const dark = useDarkTheme();
   const [selected, setSelected] = useState<number | null>(null);
+  const [hoverMode, setHoverMode] = useState<number | null>(null);
   const rangeRef = useRef<number | null>(null);
 
   useEffect(() => {
@@ -133,7 +135,7 @@ export default function SessionPage() {
       <ErrorBoundary title="The string canvas">
         <div ref={canvasBox} data-display-range-m={displayRangeM} tabIndex={0} onKeyDown={onCanvasKey} aria-label="String canvas: drag points, click the line to add one, double-click a point to remove it; arrow keys move the selected point" className="rounded-lg border border-slate-700/15 focus-visible:outline-2 focus-visible:outline-teal-400 dark:border-slate-300/10">
           {patch ? (
-            <StringCanvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={null} displayRangeM={displayRangeM} selected={selected} onSelect={setSelected} dark={dark} />
+            <StringCanvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={hoverMode} displayRangeM={displayRangeM} selected={selected} onSelect={setSelected} dark={dark} />
           ) : (
             <LoadingBlock label="Syncing the string…" rows={3} />
           )}
@@ -150,11 +152,14 @@ export default function SessionPage() {
       </ErrorBoundary>
 
       {snapshot.result && (
-        <p className="text-sm" data-testid="result-figures">
+        <p className="sr-only" data-testid="result-figures">
           f0 {snapshot.result.f0Hz.toFixed(1)} Hz · {snapshot.result.modeCount} modes · mode 1 level{' '}
           {snapshot.result.energyJ[0] > 0 ? (10 * Math.log10(snapshot.result.energyJ[0] / snapshot.result.totalEnergyJ)).toFixed(2) : '—'} dB of the total energy
         </p>
       )}
+      <ErrorBoundary title="The results">
+        <ResultsPanel result={snapshot.result} issues={snapshot.computeIssues} onHoverMode={setHoverMode} />
+      </ErrorBoundary>
 
       {patch && <NoteKeyboard patch={patch} />}
 

@@ -1,0 +1,76 @@
+import { Notice } from '../../../components/notice';
+import type { FieldIssue } from '../../../../shared/patch/field-issue';
+import type { ComputeResult } from '../../collab/api/session-connection';
+import { resultsState } from './chart-frame';
+import { ModeChart } from './mode-chart';
+import { resultFigures } from './result-figures';
+import { Spectrum } from './spectrum';
+import { Waveform } from './waveform';
+
+export interface ResultsPanelProps {
+  result: ComputeResult | null;
+  issues: FieldIssue[];
+  /** Called with the mode number under the pointer or keyboard in the mode chart, null when none. */
+  onHoverMode?: (n: number | null) => void;
+}
+
+/** At most this many problems are listed; the rest are counted. */
+const LISTED_ISSUES = 5;
+
+/**
+ * The results of the live session: a line of headline figures (f0, modes kept, total energy, T60 of
+ * mode 1), the mode chart across the top, and the spectrum and waveform of the preview side by side.
+ */
+export function ResultsPanel({ result, issues, onHoverMode }: ResultsPanelProps) {
+  const state = resultsState(result, issues);
+  return (
+    <section aria-label="Results" className="flex flex-col gap-3">
+      {state === 'problems' ? (
+        <Notice tone="caution" title="The patch has problems">
+          <ul className="list-disc pl-5">
+            {issues.slice(0, LISTED_ISSUES).map((issue) => (
+              <li key={`${issue.field}:${issue.problem}`}>{issue.message}</li>
+            ))}
+          </ul>
+          {issues.length > LISTED_ISSUES && <p className="mt-1">…and {issues.length - LISTED_ISSUES} more.</p>}
+        </Notice>
+      ) : (
+        <FiguresLine result={result} />
+      )}
+      <ModeChart result={result} issues={issues} onHoverMode={onHoverMode} />
+      <div className="grid gap-3 md:grid-cols-2">
+        <Spectrum result={result} issues={issues} />
+        <Waveform result={result} issues={issues} />
+      </div>
+    </section>
+  );
+}
+
+function FiguresLine({ result }: { result: ComputeResult | null }) {
+  if (!result) {
+    return (
+      <p role="status" className="min-h-6 text-sm text-slate-700 dark:text-slate-300">
+        No result yet: the figures appear when the server sends the first one.
+      </p>
+    );
+  }
+  const figures = resultFigures(result);
+  const items: Array<[label: string, value: string]> = [
+    ['f0', figures.f0],
+    ['Modes kept', figures.modesKept],
+    ['Total energy', figures.totalEnergy],
+    ['T60 of mode 1', figures.firstModeT60],
+  ];
+  return (
+    <div role="group" aria-label="Result figures">
+      <dl className="flex min-h-6 flex-wrap items-baseline gap-x-5 gap-y-1 text-sm">
+        {items.map(([label, value]) => (
+          <div key={label} className="flex items-baseline gap-1.5">
+            <dt className="text-slate-700 dark:text-slate-300">{label}</dt>
+            <dd className="font-semibold tabular-nums text-slate-900 dark:text-slate-100">{value}</dd>
+          </div>
+        ))}
+      </dl>
+    </div>
+  );
+}

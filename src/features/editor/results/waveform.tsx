@@ -1,0 +1,107 @@
+import { memo, useMemo } from 'react';
+import type { FieldIssue } from '../../../../shared/patch/field-issue';
+import type { ComputeResult } from '../../collab/api/session-connection';
+import { BottomAxis, SideAxis, type ChartMargins } from './chart-axes';
+import { ChartFrame, resultsState } from './chart-frame';
+import { linearScale, linearTicks } from './chart-scales';
+import { columnMinMax } from './column-min-max';
+import { formatDb } from './quantity-format';
+import { envelopeBlockS, rmsEnvelope } from './rms-envelope';
+import { MINUS } from './si-prefix';
+
+export interface WaveformProps {
+  result: ComputeResult | null;
+  issues: FieldIssue[];
+}
+
+const HEIGHT_PX = 220;
+const MARGINS: ChartMargins = { top: 10, right: 50, bottom: 40, left: 52 };
+/** The envelope's dB axis: 0 dB at the top of the plot, this level on the centre line. */
+export const ENVELOPE_RANGE_DB = 60;
+const ENVELOPE_TICKS_DB = [0, -20, -40, -60];
+
+/** Where a level in dB sits on the amplitude axis: 0 dB at +1, −60 dB (and below) at 0. */
+export function envelopeAmplitude(levelDb: number): number {
+  return Math.min(1, Math.max(0, 1 + levelDb / ENVELOPE_RANGE_DB));
+}
+
+function signedLabel(value: number): string {
+  return value < 0 ? `${MINUS}${Math.abs(value)}` : String(value);
+}
+
+/**
+ * The preview as a waveform: each pixel column shows the lowest and highest sample it covers, so no
+ * peak is lost. On top, its decay envelope: the RMS over blocks of two periods of f0, in dB (read on
+ * the right-hand axis, 0 dB at the top and −60 dB on the centre line), where an exponential decay is
+ * a straight line.
+ */
+export const Waveform = memo(function Waveform({ result, issues }: WaveformProps) {
+  const state = resultsState(result, issues);
+  const durationS = result ? result.preview.length / result.previewSampleRateHz : 0;
+  const wholeEnvelope = useMemo(() => (result ? rmsEnvelope(result.preview, result.previewSampleRateHz, envelopeBlockS(result.f0Hz, durationS, 0)) : null), [result, durationS]);
+  let summary: string | null = null;
+  if (result && wholeEnvelope) {
+    const levels = wholeEnvelope.levelDb;
+    summary =
+      levels.length === 0
+        ? 'The preview is empty.'
+        : `${durationS.toFixed(2)} s of the preview at ${(result.previewSampleRateHz / 1000).toLocaleString('en')} kHz, normalised to its peak. ` +
+          `The envelope falls from ${formatDb(Math.max(...levels))} to ${formatDb(levels[levels.length - 1])}.`;
+  }
+  return (
+    <ChartFrame title="Waveform" subject="the waveform" summary={summary} state={state} heightPx={HEIGHT_PX}>
+      {(widthPx) => (result ? <WaveformPlot result={result} durationS={durationS} widthPx={widthPx} /> : null)}
+    </ChartFrame>
+  );
+});
+
+function WaveformPlot({ result, durationS, widthPx }: { result: ComputeResult; durationS: number; widthPx: number }) {
+  const plotRight = Math.max(MARGINS.left + 10, widthPx - MARGINS.right);
+  const plotBottom = HEIGHT_PX - MARGINS.bottom;
+  const columns = Math.max(1, Math.round(plotRight - MARGINS.left));
+  const x = useMemo(() => linearScale([0, durationS > 0 ? durationS : 1], [MARGINS.left, plotRight]), [durationS, plotRight]);
+  const y = useMemo(() => linearScale([-1, 1], [plotBottom, MARGINS.top]), [plotBottom]);
+
+  const wave = useMemo(() => {
+    const { min, max } = columnMinMax(result.preview, columns);
+    const upper: string[] = [];
+    const lower: string[] = [];
+    for (let c = 0; c < columns; c++) {
+      const px = (MARGINS.left + c + 0.5).toFixed(1);
+      upper.push(`${c === 0 ? 'M' : 'L'}${px} ${y(max[c]).toFixed(1)}`);
+      // A column whose samples are all equal still gets a hairline.
+      lower.push(`L${px} ${(y(min[c]) + (max[c] === min[c] ? 0.5 : 0)).toFixed(1)}`);
+    }
+    return columns > 0 && result.preview.length > 0 ? `${upper.join('')}${lower.reverse().join('')}Z` : '';
+  }, [result, columns, y]);
+
+  const envelope = useMemo(() => {
+    const { timeS, levelDb } = rmsEnvelope(result.preview, result.previewSampleRateHz, envelopeBlockS(result.f0Hz, durationS, columns));
+    const parts: string[] = [];
+    for (let block = 0; block < timeS.length; block++) {
+      parts.push(`${block === 0 ? 'M' : 'L'}${x(timeS[block]).toFixed(1)} ${y(envelopeAmplitude(levelDb[block])).toFixed(1)}`);
+    }
+    return parts.join('');
+  }, [result, durationS, columns, x, y]);
+
+  const timeTicks = linearTicks(x.domain, Math.max(2, Math.floor(columns / 70)));
+  const dbScale = linearScale([-ENVELOPE_RANGE_DB, 0], [y(0), y(1)]);
+  return (
+    <svg width={widthPx} height={HEIGHT_PX} viewBox={`0 0 ${widthPx} ${HEIGHT_PX}`} className="block" aria-hidden="true">
+      <SideAxis scale={y} ticks={[-1, -0.5, 0, 0.5, 1]} format={signedLabel} title="amplitude (normalised)" at={MARGINS.left} gridTo={plotRight} />
+      <BottomAxis scale={x} ticks={timeTicks} format={(t) => String(t)} title="time (s)" at={plotBottom} />
+      <path d={wave} data-waveform="" className="fill-teal-600 stroke-teal-600 dark:fill-teal-400 dark:stroke-teal-400" strokeWidth={0.5} />
+      <path d={envelope} fill="none" className="stroke-white dark:stroke-slate-900" strokeWidth={4} strokeLinejoin="round" opacity={0.8} />
+      <path d={envelope} data-envelope="" fill="none" className="stroke-brass-600 dark:stroke-brass-300" strokeWidth={1.75} strokeLinejoin="round" />
+      <SideAxis
+        scale={dbScale}
+        ticks={ENVELOPE_TICKS_DB}
+        format={signedLabel}
+        title="envelope (dB)"
+        at={plotRight}
+        side="right"
+        className="text-brass-600 dark:text-brass-300"
+      />
+    </svg>
+  );
+}
