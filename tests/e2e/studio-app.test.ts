@@ -64,7 +64,7 @@ describe('the studio web app in a real browser', () => {
     await page.getByLabel('E-mail').fill('marisol@saltglass.example');
     await page.getByLabel('Password').fill('short');
     await page.getByRole('button', { name: 'Create account' }).click();
-    await expect(page.getByText('Password must be at least 10 characters').isVisible()).resolves.toBe(true);
+    await page.getByText('Password must be at least 10 characters').waitFor();
     await screenshots(page, 'register-error');
     await page.getByLabel('Password').fill('quiet-harbour-42');
     await page.getByRole('button', { name: 'Create account' }).click();
@@ -78,7 +78,7 @@ describe('the studio web app in a real browser', () => {
     await page.getByRole('button', { name: 'Create studio' }).click();
     await page.waitForURL(/\/studios\/[0-9a-f-]+$/);
     await page.getByRole('heading', { name: 'Tidewater Foley' }).waitFor();
-    await expect(page.getByText('No sessions yet').isVisible()).resolves.toBe(true);
+    await page.getByText('No sessions yet').waitFor();
   });
 
   it('shows the seeded lead the studio’s sessions, and starts and renames one', async () => {
@@ -136,7 +136,7 @@ describe('the studio web app in a real browser', () => {
     await invitee.getByRole('button', { name: 'Create account and join' }).click();
     await invitee.waitForURL(/\/studios\/[0-9a-f-]+$/);
     await invitee.getByRole('heading', { name: 'Kestrel Lantern Audio' }).waitFor();
-    await expect(invitee.getByText('Sessions · you are a designer here').isVisible()).resolves.toBe(true);
+    await invitee.getByText('Sessions · you are a designer here').waitFor();
     await expect(invitee.getByRole('combobox', { name: 'Studio' }).inputValue()).resolves.toMatch(/[0-9a-f-]+/);
     await expect(invitee.getByRole('option', { name: 'Kestrel Lantern Audio (designer)' }).count()).resolves.toBe(1);
   });
@@ -157,7 +157,7 @@ describe('the studio web app in a real browser', () => {
     await page.getByLabel('Patch JSON file').setInputFiles(bad);
     await page.getByRole('button', { name: 'Upload preset' }).click();
     await page.getByText('string.tensionN must be > 0, got -5').waitFor();
-    await expect(page.getByText('broken-tension.json was not accepted:').isVisible()).resolves.toBe(true);
+    await page.getByText('broken-tension.json was not accepted:').waitFor();
     await screenshots(page, 'presets-upload-error');
 
     await page.getByLabel('Patch JSON file').setInputFiles(good);
