@@ -4,6 +4,9 @@ import { deletePoint, insertPoint, movePoint } from '../../../../shared/collab/p
 import { patchDoc } from '../../../../shared/collab/patch-doc';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import type { Presence, SessionConnection } from '../../collab/api/session-connection';
+import { createCanvasScale } from '../geometry/canvas-scale';
+import { asPixels } from '../geometry/canvas-units';
+import { niceTicks } from '../geometry/nice-ticks';
 
 export interface StringCanvasProps {
   connection: SessionConnection;
@@ -35,14 +38,14 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
   const points = patch.excitation.displacementM;
   const peakM = Math.max(1e-3, ...points.map(([, y]) => Math.abs(y)));
   const midPx = heightPx / 2;
+  // The tested mapping of the geometry module; Konva hands back plain numbers, marked as pixels here.
   const scale = useMemo(() => {
-    const usable = widthPx - 2 * MARGIN_PX;
-    const half = heightPx / 2 - MARGIN_PX;
+    const mapping = createCanvasScale({ lengthM, widthPx, heightPx, marginPx: MARGIN_PX, displacementRangeM: displayRangeM });
     return {
-      xToPx: (xM: number) => MARGIN_PX + (xM / lengthM) * usable,
-      pxToX: (px: number) => ((px - MARGIN_PX) / usable) * lengthM,
-      yToPx: (yM: number) => heightPx / 2 - (yM / displayRangeM) * half,
-      pxToY: (px: number) => ((heightPx / 2 - px) / half) * displayRangeM,
+      xToPx: (xM: number) => mapping.xToPx(xM),
+      pxToX: (px: number) => mapping.pxToX(asPixels(px)),
+      yToPx: (yM: number) => mapping.yToPx(yM),
+      pxToY: (px: number) => mapping.pxToY(asPixels(px)),
     };
   }, [widthPx, heightPx, lengthM, displayRangeM]);
 
@@ -51,7 +54,7 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
     : { axis: '#b7bfcc', string: '#a8741a', point: '#d49a2a', text: '#323a4a', pickup: '#1f8f82', mode: '#c24b2b' };
 
   const flat = points.flatMap(([x, y]) => [scale.xToPx(x), scale.yToPx(y)]);
-  const ticks = millimetreTicks(lengthM);
+  const ticks = niceTicks([0, lengthM * 1000], 8).valuesMm.map((mm) => mm / 1000);
   const modeLine = useMemo(() => {
     if (!highlightMode) return null;
     const samples = 200;
@@ -168,15 +171,6 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
   );
 }
 
-/** Ticks every 1, 2 or 5 × 10^k millimetres, about eight along the string. */
-function millimetreTicks(lengthM: number): number[] {
-  const rough = lengthM / 8;
-  const power = 10 ** Math.floor(Math.log10(rough));
-  const step = [1, 2, 5, 10].map((m) => m * power).find((candidate) => candidate >= rough) ?? rough;
-  const ticks: number[] = [];
-  for (let x = 0; x <= lengthM + step * 1e-9; x += step) ticks.push(Number(x.toFixed(9)));
-  return ticks;
-}
 
 /**
  * The vertical scale keeps still while someone drags (so a point stays under the pointer) and
