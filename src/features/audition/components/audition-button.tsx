@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Button } from '../../../components/button';
-import { cautionSeen, markCautionSeen, playUrl, stopPlayback } from '../audio-output';
-import { MasterVolume } from './master-volume';
+import { cautionSeen, playUrl, stopPlayback } from '../audio-output';
+import { AudioCaution } from './audio-caution';
 
 /**
  * Plays a preview. The first play anywhere in the app asks the listener to turn their speakers
@@ -42,29 +42,13 @@ export function AuditionButton({ url, label }: { url: string; label: string }) {
       </span>
       {state === 'failed' && <span className="text-sm text-ember-600 dark:text-ember-400">The preview could not be played.</span>}
       {asking && (
-        <div role="alertdialog" aria-labelledby="audio-caution-title" className="rounded-md border border-brass-500/60 bg-brass-400/15 p-3 text-sm">
-          <p id="audio-caution-title" className="font-semibold">
-            Before the first sound
-          </p>
-          <p className="mt-1">Audio can be loud and can hurt hearing and speakers. Turn your speakers or headphones down, then raise the level slowly.</p>
-          <div className="mt-2">
-            <MasterVolume />
-          </div>
-          <div className="mt-2 flex gap-2">
-            <Button
-              onClick={() => {
-                markCautionSeen();
-                setAsking(false);
-                void play();
-              }}
-            >
-              Play at this level
-            </Button>
-            <Button variant="ghost" onClick={() => setAsking(false)}>
-              Not now
-            </Button>
-          </div>
-        </div>
+        <AudioCaution
+          onConfirm={() => {
+            setAsking(false);
+            void play();
+          }}
+          onCancel={() => setAsking(false)}
+        />
       )}
     </span>
   );

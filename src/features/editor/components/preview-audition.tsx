@@ -1,7 +1,7 @@
 import { useCallback, useEffect, useState } from 'react';
 import { Button } from '../../../components/button';
-import { cautionSeen, markCautionSeen, playSamples, stopPlayback } from '../../audition/audio-output';
-import { MasterVolume } from '../../audition/components/master-volume';
+import { cautionSeen, playSamples, stopPlayback } from '../../audition/audio-output';
+import { AudioCaution } from '../../audition/components/audio-caution';
 import type { ComputeResult } from '../../collab/api/session-connection';
 
 /**
@@ -57,32 +57,13 @@ export function PreviewAudition({ result }: { result: ComputeResult | null }) {
         </span>
       )}
       {asking && (
-        <div role="alertdialog" aria-labelledby="editor-caution" className="w-full rounded-md border border-brass-500/60 bg-brass-400/15 p-3 text-sm">
-          <p id="editor-caution" className="font-semibold">
-            Before the first sound
-          </p>
-          <p className="mt-1">
-            Start low: loud audio can hurt hearing and speakers. Long exposure is safe only at moderate levels (WHO–ITU H.870: at most 80 dB(A) for 40 hours a
-            week).
-          </p>
-          <div className="mt-2">
-            <MasterVolume />
-          </div>
-          <div className="mt-2 flex gap-2">
-            <Button
-              onClick={() => {
-                markCautionSeen();
-                setAsking(false);
-                void play();
-              }}
-            >
-              Play at this level
-            </Button>
-            <Button variant="ghost" onClick={() => setAsking(false)}>
-              Not now
-            </Button>
-          </div>
-        </div>
+        <AudioCaution
+          onConfirm={() => {
+            setAsking(false);
+            void play();
+          }}
+          onCancel={() => setAsking(false)}
+        />
       )}
     </section>
   );
