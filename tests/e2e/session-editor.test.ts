@@ -54,6 +54,18 @@ async function storedPatch(page: Page, sessionId: string): Promise<Patch> {
   return (await response.json()).session.patch as Patch;
 }
 
+/** The stored patch once it has stopped changing (drags arrive in steps; the patch JSON follows within 200 ms). */
+async function settledPatch(page: Page, sessionId: string): Promise<Patch> {
+  let previous = JSON.stringify(await storedPatch(page, sessionId));
+  for (let attempt = 0; attempt < 50; attempt++) {
+    await page.waitForTimeout(300);
+    const current = JSON.stringify(await storedPatch(page, sessionId));
+    if (current === previous) return JSON.parse(current) as Patch;
+    previous = current;
+  }
+  throw new Error('the stored patch kept changing');
+}
+
 /** Where the tallest interior point of the pluck is drawn, from the same mapping the canvas uses. */
 async function pluckPointPx(page: Page, patch: Patch): Promise<{ x: number; y: number; index: number }> {
   const box = (await page.locator('canvas').first().boundingBox())!;
@@ -88,18 +100,14 @@ describe('the live session editor in a real browser', () => {
     expect((await designer.request.patch(`/api/sessions/${sessionId}`, { data: { patch: plain } })).status()).toBe(200);
     await expect.poll(() => lead.getByTestId('result-figures').textContent(), { timeout: 15_000 }).not.toBe(figuresFirst);
     await designer.waitForTimeout(300);
-    const before = await storedPatch(designer, sessionId);
+    const before = await settledPatch(designer, sessionId);
     const figuresBefore = await lead.getByTestId('result-figures').textContent();
     const point = await pluckPointPx(designer, before);
     await drag(designer, point, 80);
 
     // The lead's mode figures change once the drag reaches the server and the compute comes back.
     await expect.poll(() => lead.getByTestId('result-figures').textContent(), { timeout: 15_000 }).not.toBe(figuresBefore);
-    let after = before;
-    for (let attempt = 0; attempt < 40 && after.excitation.displacementM[point.index + 1][0] === before.excitation.displacementM[point.index + 1][0]; attempt++) {
-      await designer.waitForTimeout(100);
-      after = await storedPatch(designer, sessionId);
-    }
+    const after = await settledPatch(designer, sessionId);
     expect(after.excitation.displacementM[point.index + 1][0]).toBeGreaterThan(before.excitation.displacementM[point.index + 1][0]);
     await lead.screenshot({ path: join(SHOTS, 'editor-two-people-light.png'), fullPage: true });
     await lead.emulateMedia({ colorScheme: 'dark' });
@@ -112,8 +120,7 @@ describe('the live session editor in a real browser', () => {
     await listener.getByText('You can watch and listen').waitFor();
     const listenerPoint = await pluckPointPx(listener, after);
     await drag(listener, listenerPoint, -120);
-    await listener.waitForTimeout(500);
-    expect((await storedPatch(listener, sessionId)).excitation.displacementM).toEqual(after.excitation.displacementM);
+    expect((await settledPatch(listener, sessionId)).excitation.displacementM).toEqual(after.excitation.displacementM);
 
     // Audition: the first play asks first; then the buffer plays at the server's rate and length.
     await designer.getByRole('button', { name: 'Play preview' }).click();
