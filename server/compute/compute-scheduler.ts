@@ -35,13 +35,15 @@ export class ComputeScheduler {
     this.running = true;
     try {
       while (this.dirty) {
-        const rest = this.lastSentAt + this.minIntervalMs - this.now();
-        if (rest > 0) await new Promise((resolve) => setTimeout(resolve, rest));
+        // Timers may fire a little early: wait again until a full frame has passed by our own clock.
+        for (let rest = this.lastSentAt + this.minIntervalMs - this.now(); rest > 0; rest = this.lastSentAt + this.minIntervalMs - this.now()) {
+          await new Promise((resolve) => setTimeout(resolve, Math.ceil(rest)));
+        }
         this.dirty = false;
         const send = await this.job().catch(() => null);
         if (!send) continue;
-        send();
         this.lastSentAt = this.now();
+        send();
       }
     } finally {
       this.running = false;
