@@ -162,5 +162,23 @@ describe('the live session editor in a real browser', () => {
     expect(peak[1]).toBeCloseTo(0.0025, 9);
     expect(patch.excitation.displacementM.length).toBeGreaterThan(10);
     await designer.screenshot({ path: join(SHOTS, 'editor-pluck-light.png'), fullPage: true });
+
+    // A strike layer for a struck tone: added, then a click on the line adds an initial velocity there.
+    await designer.getByRole('button', { name: 'Add a strike layer' }).click();
+    await designer.getByRole('combobox', { name: 'Clicking the line adds to' }).selectOption('velocity');
+    const shaped = await settledPatch(designer, sessionId);
+    expect(shaped.excitation.velocityMPerS).toEqual([[0, 0], [shaped.string.lengthM, 0]]);
+    const box = (await designer.locator('canvas').first().boundingBox())!;
+    const range = Number(await designer.locator('[data-display-range-m]').getAttribute('data-display-range-m'));
+    const xM = 0.45;
+    const line = shaped.excitation.displacementM;
+    const j = line.findIndex(([x]) => x > xM) - 1;
+    const yM = line[j][1] + ((line[j + 1][1] - line[j][1]) * (xM - line[j][0])) / (line[j + 1][0] - line[j][0]);
+    await designer.mouse.click(box.x + MARGIN_PX + (xM / shaped.string.lengthM) * (box.width - 2 * MARGIN_PX), box.y + HEIGHT_PX / 2 - (yM / range) * (HEIGHT_PX / 2 - MARGIN_PX));
+    const struck = await settledPatch(designer, sessionId);
+    expect(struck.excitation.velocityMPerS).toHaveLength(3);
+    expect(struck.excitation.velocityMPerS![1][0]).toBeCloseTo(xM, 2);
+    expect(struck.excitation.velocityMPerS![1][1]).not.toBe(0);
+    await designer.screenshot({ path: join(SHOTS, 'editor-strike-light.png'), fullPage: true });
   }, 60_000);
 });

@@ -1,5 +1,6 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
+import { patchDoc } from '../../../shared/collab/patch-doc';
 import { movePoint } from '../../../shared/collab/point-edits';
 import { Button } from '../../components/button';
 import { ErrorBoundary } from '../../components/error-boundary';
@@ -55,6 +56,8 @@ export default function SessionPage() {
   const dark = useDarkTheme();
   const [selected, setSelected] = useState<number | null>(null);
   const [hoverMode, setHoverMode] = useState<number | null>(null);
+  const [showStrike, setShowStrike] = useState(true);
+  const [activeLayer, setActiveLayer] = useState<'displacement' | 'velocity'>('displacement');
   const rangeRef = useRef<number | null>(null);
 
   useEffect(() => {
@@ -135,12 +138,35 @@ export default function SessionPage() {
       <ErrorBoundary title="The string canvas">
         <div ref={canvasBox} data-display-range-m={displayRangeM} tabIndex={0} onKeyDown={onCanvasKey} aria-label="String canvas: drag points, click the line to add one, double-click a point to remove it; arrow keys move the selected point" className="rounded-lg border border-slate-700/15 focus-visible:outline-2 focus-visible:outline-teal-400 dark:border-slate-300/10">
           {patch ? (
-            <StringCanvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={hoverMode} displayRangeM={displayRangeM} selected={selected} onSelect={setSelected} dark={dark} />
+            <StringCanvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={hoverMode} displayRangeM={displayRangeM} showStrike={showStrike} activeLayer={activeLayer} selected={selected} onSelect={setSelected} dark={dark} />
           ) : (
             <LoadingBlock label="Syncing the string…" rows={3} />
           )}
         </div>
       </ErrorBoundary>
+      {patch && (
+        <section aria-label="Layers" className="flex flex-wrap items-center gap-4 text-sm">
+          {patch.excitation.velocityMPerS ? (
+            <>
+              <label className="flex items-center gap-2">
+                <input type="checkbox" checked={showStrike} onChange={(event) => setShowStrike(event.target.checked)} className="size-4 accent-teal-600" />
+                Show the strike layer (initial velocity)
+              </label>
+              <label className="flex items-center gap-2">
+                Clicking the line adds to
+                <select value={activeLayer} onChange={(event) => setActiveLayer(event.target.value as 'displacement' | 'velocity')} className="rounded border border-slate-700/30 bg-white px-2 py-1 dark:border-slate-300/20 dark:bg-slate-900">
+                  <option value="displacement">the shape (displacement)</option>
+                  <option value="velocity">the strike layer (velocity)</option>
+                </select>
+              </label>
+            </>
+          ) : (
+            <Button variant="secondary" disabledReason={readOnly ? 'read-only' : undefined} onClick={() => connection.edit((doc) => patchDoc(doc).meta.set('hasVelocity', true))}>
+              Add a strike layer
+            </Button>
+          )}
+        </section>
+      )}
       {snapshot.patchIssues.length > 0 && (
         <Notice tone="error" title="The string has a problem">
           {snapshot.patchIssues.map((issue) => issue.message).join('; ')}

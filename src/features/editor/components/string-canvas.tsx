@@ -21,6 +21,9 @@ export interface StringCanvasProps {
   displayRangeM: number;
   selected: number | null;
   onSelect: (index: number | null) => void;
+  /** Whether the strike layer (initial velocity) is drawn, and which layer a click on the line adds to. */
+  showStrike: boolean;
+  activeLayer: 'displacement' | 'velocity';
   dark: boolean;
 }
 
@@ -33,7 +36,7 @@ const MARGIN_PX = CANVAS_MARGIN_PX;
  * the shared edit helpers); a click on the line adds a point; the pickup is a handle on the axis.
  * Teammates' pointers and the points they drag show in their colours.
  */
-export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heightPx, highlightMode, displayRangeM, selected, onSelect, dark }: StringCanvasProps) {
+export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heightPx, highlightMode, displayRangeM, selected, onSelect, showStrike, activeLayer, dark }: StringCanvasProps) {
   const lengthM = patch.string.lengthM;
   const points = patch.excitation.displacementM;
   const peakM = Math.max(1e-3, ...points.map(([, y]) => Math.abs(y)));
@@ -54,6 +57,12 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
     : { axis: '#b7bfcc', string: '#a8741a', point: '#d49a2a', text: '#323a4a', pickup: '#1f8f82', mode: '#c24b2b' };
 
   const flat = points.flatMap(([x, y]) => [scale.xToPx(x), scale.yToPx(y)]);
+  // The strike layer (initial velocity) has its own vertical scale, drawn over the same axis.
+  const strike = patch.excitation.velocityMPerS;
+  const velocityRangeMPerS = Math.max(0.1, ...(strike ?? []).map(([, v]) => Math.abs(v))) * 1.6;
+  const halfHeightPx = heightPx / 2 - MARGIN_PX;
+  const velocityToPx = (vMPerS: number) => heightPx / 2 - (vMPerS / velocityRangeMPerS) * halfHeightPx;
+  const pxToVelocity = (px: number) => ((heightPx / 2 - px) / halfHeightPx) * velocityRangeMPerS;
   const ticks = niceTicks([0, lengthM * 1000], 8).valuesMm.map((mm) => mm / 1000);
   const modeLine = useMemo(() => {
     if (!highlightMode) return null;
@@ -103,7 +112,8 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           onClick={(event) => {
             const pointer = event.target.getStage()?.getPointerPosition();
             if (!pointer) return;
-            edit((doc, origin) => void insertPoint(doc, 'displacement', scale.pxToX(pointer.x), scale.pxToY(pointer.y), origin));
+            if (activeLayer === 'velocity' && strike) edit((doc, origin) => void insertPoint(doc, 'velocity', scale.pxToX(pointer.x), pxToVelocity(pointer.y), origin));
+            else edit((doc, origin) => void insertPoint(doc, 'displacement', scale.pxToX(pointer.x), scale.pxToY(pointer.y), origin));
           }}
         />
         {/* Interior points: index i in the document is point i + 1 of the polyline. */}
@@ -139,6 +149,33 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
             </Group>
           );
         })}
+        {showStrike && strike && (
+          <>
+            <Line points={strike.flatMap(([x, v]) => [scale.xToPx(x), velocityToPx(v)])} stroke={colours.pickup} strokeWidth={2} dash={[8, 4]} />
+            <Text x={4} y={18} text={`strike layer ±${velocityRangeMPerS.toPrecision(2)} m/s`} fontSize={10} fill={colours.pickup} />
+            {strike.slice(1, -1).map(([xM, vMPerS], docIndex) => (
+              <Circle
+                key={`v-${docIndex}`}
+                x={scale.xToPx(xM)}
+                y={velocityToPx(vMPerS)}
+                radius={5}
+                fill={colours.pickup}
+                draggable={!readOnly}
+                name={`strike-point-${docIndex}`}
+                onDragStart={() => {
+                  connection.beginGesture();
+                  connection.setPresence({ dragging: { layer: 'velocity', index: docIndex } });
+                }}
+                onDragMove={(event) => edit((doc, origin) => void movePoint(doc, 'velocity', docIndex, scale.pxToX(event.target.x()), pxToVelocity(event.target.y()), origin))}
+                onDragEnd={() => {
+                  connection.endGesture();
+                  connection.setPresence({ dragging: null });
+                }}
+                onDblClick={() => edit((doc, origin) => void deletePoint(doc, 'velocity', docIndex, origin))}
+              />
+            ))}
+          </>
+        )}
         <Group
           x={scale.xToPx(patch.pickup.positionM)}
           y={midPx}
