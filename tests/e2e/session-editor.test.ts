@@ -1,43 +1,26 @@
-import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Patch } from '../../shared/patch/patch-schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
-import { startAppProcess, type AppProcess } from '../support/app-process';
-import { launchBrowser } from '../support/browser';
-import { PROJECT_ROOT } from '../support/run-cli';
+import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
 import { testPatch } from '../support/patches';
 
-const SHOTS = join(PROJECT_ROOT, 'test-results', 'screenshots');
 const MARGIN_PX = 36;
 const HEIGHT_PX = 300;
 
-let app: AppProcess;
-let browser: Browser;
-const contexts: BrowserContext[] = [];
+let harness: E2eHarness;
 
 beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
-  app = await startAppProcess();
-  browser = await launchBrowser();
+  harness = await startE2eHarness();
 }, 180_000);
 
-afterAll(async () => {
-  for (const context of contexts) await context.close();
-  await browser?.close();
-  await app?.stop();
-});
+afterAll(() => harness?.close());
 
 async function signedInPage(role: string): Promise<Page> {
-  const context = await browser.newContext({ baseURL: app.baseUrl, viewport: { width: 1280, height: 1000 } });
-  contexts.push(context);
-  const page = await context.newPage();
+  const page = await harness.newPage({ height: 1000 });
   const account = DEMO_ACCOUNTS.find((candidate) => candidate.role === role)!;
-  await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(account.email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await harness.signIn(page, account.email, DEMO_PASSWORD);
   await page.getByRole('link', { name: 'Lighthouse stair climb' }).waitFor();
   return page;
 }

@@ -1,38 +1,22 @@
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
-import { startAppProcess, type AppProcess } from '../support/app-process';
-import { launchBrowser } from '../support/browser';
-import { PROJECT_ROOT } from '../support/run-cli';
+import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
 import { testPatch } from '../support/patches';
 
-/** Screenshots for review land here (git-ignored). */
-const SHOTS = join(PROJECT_ROOT, 'test-results', 'screenshots');
-
-let app: AppProcess;
-let browser: Browser;
-const contexts: BrowserContext[] = [];
+let harness: E2eHarness;
 
 beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
-  app = await startAppProcess();
-  browser = await launchBrowser();
+  harness = await startE2eHarness();
 }, 180_000);
 
-afterAll(async () => {
-  for (const context of contexts) await context.close();
-  await browser?.close();
-  await app?.stop();
-});
+afterAll(() => harness?.close());
 
-async function newPage(colorScheme: 'light' | 'dark' = 'light'): Promise<Page> {
-  const context = await browser.newContext({ baseURL: app.baseUrl, colorScheme, viewport: { width: 1280, height: 860 } });
-  contexts.push(context);
-  return context.newPage();
-}
+const newPage = (colorScheme: 'light' | 'dark' = 'light') => harness.newPage({ colorScheme });
+const signIn = (page: Page, email: string, password: string) => harness.signIn(page, email, password);
 
 /** Saves the page in both themes: the app follows the system scheme until someone picks one. */
 async function screenshots(page: Page, name: string): Promise<void> {
@@ -42,13 +26,6 @@ async function screenshots(page: Page, name: string): Promise<void> {
     await page.screenshot({ path: join(SHOTS, `${name}-${scheme}.png`), fullPage: true });
   }
   await page.emulateMedia({ colorScheme: 'light' });
-}
-
-async function signIn(page: Page, email: string, password: string): Promise<void> {
-  await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
 }
 
 const account = (role: string) => DEMO_ACCOUNTS.find((candidate) => candidate.role === role)!;

@@ -1,12 +1,11 @@
 import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
-import { passwordWeakness } from '../../../shared/api/password-policy';
-import { LIMITS } from '../../../shared/limits';
 import { AuthFrame } from '../../components/auth-frame';
 import { Button } from '../../components/button';
 import { Notice } from '../../components/notice';
 import { TextField } from '../../components/text-field';
 import { registerInputSchema, useRegister } from '../../features/auth/api/register';
+import { PASSWORD_RULES_HINT, passwordProblem } from '../../features/account/password-rules';
 import { useFieldErrors } from '../../lib/use-field-errors';
 import { safeNext } from './sign-in-page';
 
@@ -22,8 +21,8 @@ export default function RegisterPage() {
     event.preventDefault();
     const input = fields.check(registerInputSchema, form);
     if (!input) return;
-    const weak = passwordWeakness(input.password, input.email);
-    setWeakness(weak ? `Password ${weak}` : null);
+    const weak = passwordProblem(input.password, input.email);
+    setWeakness(weak);
     if (weak) return;
     register.mutate(input, { onSuccess: () => navigate(safeNext(params.get('next')), { replace: true }), onError: fields.fromServer });
   };
@@ -40,7 +39,7 @@ export default function RegisterPage() {
           value={form.password}
           onChange={(event) => setForm({ ...form, password: event.target.value })}
           error={weakness ?? fields.errors.password}
-          hint={`At least ${LIMITS.minPasswordLength} characters, 5 or more different ones, not your e-mail.`}
+          hint={PASSWORD_RULES_HINT}
         />
         {register.isError && Object.keys(fields.errors).length === 0 && <Notice tone="error">{register.error.message}</Notice>}
         <Button type="submit" busy={register.isPending} className="mt-2">
