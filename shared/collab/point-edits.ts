@@ -84,3 +84,25 @@ export function setLengthM(doc: Y.Doc, lengthM: Metres, origin?: unknown): EditR
   }, origin);
   return { ok: true };
 }
+
+/**
+ * Replaces every interior point of a layer in one transaction (a freehand stroke, a pluck laid
+ * down): one undo step for the person who made it. Refuses points that are off the string, out of
+ * order, closer than the minimum gap or not finite, and then changes nothing.
+ */
+export function replaceLayerPoints(doc: Y.Doc, layer: Layer, interior: ReadonlyArray<readonly [number, number]>, origin?: unknown): EditResult {
+  const lengthM = lengthOf(doc);
+  const gap = lengthM * MIN_POINT_GAP_FRACTION;
+  let previous = 0;
+  for (const [x, value] of interior) {
+    if (!Number.isFinite(x) || !Number.isFinite(value)) return { ok: false, reason: 'x and value must be finite numbers' };
+    if (!(x >= previous + gap && x <= lengthM - gap)) return { ok: false, reason: 'points must lie between the supports in increasing x' };
+    previous = x;
+  }
+  const array = layerArray(doc, layer);
+  doc.transact(() => {
+    if (array.length > 0) array.delete(0, array.length);
+    if (interior.length > 0) array.insert(0, interior.map(([x, value]) => docPoint(x, value)));
+  }, origin);
+  return { ok: true };
+}

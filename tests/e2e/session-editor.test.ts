@@ -164,4 +164,94 @@ describe('the live session editor in a real browser', () => {
     expect(struck.excitation.velocityMPerS![1][1]).not.toBe(0);
     await designer.screenshot({ path: join(SHOTS, 'editor-strike-light.png'), fullPage: true });
   }, 60_000);
+  it('draws freehand, types a point, steps the handles from the keyboard, plays the slow motion, A/B against a preset and a note from a MIDI keyboard', async () => {
+    const page = await harness.newPage({ height: 1400 });
+    // Headless Chromium has no MIDI device: a stand-in keyboard with one input, driven by the test.
+    await page.addInitScript(() => {
+      const input = { onmidimessage: null as null | ((event: { data: Uint8Array }) => void) };
+      (window as unknown as { __midiInput: typeof input }).__midiInput = input;
+      Object.defineProperty(navigator, 'requestMIDIAccess', { configurable: true, value: async () => ({ inputs: new Map([['stand-in', input]]), onstatechange: null }) });
+    });
+    const designer = DEMO_ACCOUNTS.find((candidate) => candidate.role === 'designer')!;
+    await harness.signIn(page, designer.email, DEMO_PASSWORD);
+    await page.getByRole('link', { name: 'Lighthouse stair climb' }).waitFor();
+    const sessionId = await openSession(page);
+    const plain = testPatch({ name: 'Plain pluck', render: { sampleRateHz: 48000, durationS: 2, maxModes: 4096 } });
+    expect((await page.request.patch(`/api/sessions/${sessionId}`, { data: { patch: plain } })).status()).toBe(200);
+    await expect.poll(async () => (await storedPatch(page, sessionId)).name).toBe('Plain pluck');
+    const before = await settledPatch(page, sessionId);
+
+    // Freehand: a stroke across the string becomes the shape, simplified, in one undo step.
+    await page.getByRole('radio', { name: 'Draw freehand' }).click();
+    const box = (await page.locator('canvas').first().boundingBox())!;
+    const range = Number(await page.locator('[data-display-range-m]').getAttribute('data-display-range-m'));
+    const drawable = box.width - 2 * MARGIN_PX;
+    const halfHeight = HEIGHT_PX / 2 - MARGIN_PX;
+    const strokeY = (u: number) => box.y + HEIGHT_PX / 2 - Math.sin(Math.PI * u) * 0.5 * halfHeight;
+    await page.mouse.move(box.x + MARGIN_PX + 0.02 * drawable, strokeY(0.02));
+    await page.mouse.down();
+    for (let step = 1; step <= 80; step++) {
+      const u = 0.02 + (0.96 * step) / 80;
+      await page.mouse.move(box.x + MARGIN_PX + u * drawable, strokeY(u));
+    }
+    await page.mouse.up();
+    let drawn = before;
+    for (let attempt = 0; attempt < 40 && JSON.stringify(drawn.excitation.displacementM) === JSON.stringify(before.excitation.displacementM); attempt++) {
+      await page.waitForTimeout(100);
+      drawn = await storedPatch(page, sessionId);
+    }
+    const shape = drawn.excitation.displacementM;
+    expect(shape.length).toBeGreaterThan(5);
+    expect(shape.length).toBeLessThan(82);
+    for (let i = 1; i < shape.length; i++) expect(shape[i][0]).toBeGreaterThan(shape[i - 1][0]);
+    // The stroke peaked at half the drawing height: half the displayed range, give or take a pixel.
+    const peakM = Math.max(...shape.map(([, y]) => y));
+    expect(Math.abs(peakM - 0.5 * range)).toBeLessThan((2 / halfHeight) * range);
+    await page.screenshot({ path: join(SHOTS, 'editor-freehand-light.png'), fullPage: true });
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expect.poll(async () => JSON.stringify((await storedPatch(page, sessionId)).excitation.displacementM), { timeout: 10_000 }).toBe(JSON.stringify(before.excitation.displacementM));
+
+    // The keyboard and typed numbers: ] selects the first point; its displacement is typed in.
+    await page.getByRole('radio', { name: 'Edit points' }).click();
+    await page.getByLabel(/^String canvas/).focus();
+    await page.keyboard.press(']');
+    const handle = page.getByRole('region', { name: 'Selected handle' });
+    await handle.getByText('Point 1 of the shape').waitFor();
+    await handle.getByLabel('Displacement').fill('1.5');
+    await handle.getByLabel('Displacement').press('Enter');
+    await expect.poll(async () => (await storedPatch(page, sessionId)).excitation.displacementM[1][1], { timeout: 10_000 }).toBeCloseTo(0.0015, 9);
+    await handle.getByLabel('Position').fill('900');
+    await handle.getByLabel('Position').press('Enter');
+    await handle.getByRole('alert').filter({ hasText: 'between its neighbours' }).waitFor();
+    // Arrow keys move the selected point 1 mm along the string.
+    const typed = await settledPatch(page, sessionId);
+    await page.getByLabel(/^String canvas/).focus();
+    await page.keyboard.press('ArrowRight');
+    await expect.poll(async () => (await storedPatch(page, sessionId)).excitation.displacementM[1][0], { timeout: 10_000 }).toBeCloseTo(typed.excitation.displacementM[1][0] + 0.001, 9);
+
+    // Slow motion: the string on its own stage moves while it plays.
+    const motion = page.getByTestId('string-motion');
+    const still = await motion.screenshot();
+    await page.getByRole('button', { name: 'Play motion' }).click();
+    await page.waitForTimeout(400);
+    expect((await motion.screenshot()).equals(still)).toBe(false);
+    await page.getByRole('button', { name: 'Pause' }).click();
+
+    // A/B: the session's preview, then a preset's, through the same output.
+    await page.getByRole('button', { name: 'Play preview' }).click();
+    await page.getByRole('button', { name: 'Play at this level' }).click();
+    await expect.poll(() => page.getByTestId('audition-info').textContent(), { timeout: 10_000 }).toMatch(/samples at 48000 Hz · audio running$/);
+    const compare = page.getByRole('combobox', { name: 'Compare with' });
+    const presetName = (await compare.locator('option').nth(1).textContent())!;
+    await compare.selectOption({ label: presetName });
+    await page.getByRole('radio', { name: `B: ${presetName}` }).click();
+    await page.getByRole('button', { name: '▶ Play B', exact: true }).click();
+    await expect.poll(() => page.getByTestId('audition-info').textContent(), { timeout: 10_000 }).toMatch(new RegExp(`^B: ${presetName.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')} · \\d+\\.\\d\\d s$`));
+
+    // A note-on from the MIDI keyboard plays that note, retuned and rendered.
+    await page.getByRole('button', { name: 'Use MIDI keyboard' }).click();
+    await page.getByText('MIDI: 1 input connected.').waitFor();
+    await page.evaluate(() => (window as unknown as { __midiInput: { onmidimessage: (event: { data: Uint8Array }) => void } }).__midiInput.onmidimessage({ data: new Uint8Array([0x90, 64, 100]) }));
+    await expect.poll(() => page.getByTestId('note-played').textContent(), { timeout: 10_000 }).toMatch(/^Played E4 \(329\.6 Hz\), computed in \d+ ms$/);
+  }, 90_000);
 });

@@ -1,7 +1,7 @@
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { patchDoc } from '../../../shared/collab/patch-doc';
-import { movePoint } from '../../../shared/collab/point-edits';
+import { deletePoint, movePoint } from '../../../shared/collab/point-edits';
 import { Button } from '../../components/button';
 import { ErrorBoundary } from '../../components/error-boundary';
 import { LoadingBlock } from '../../components/loading-block';
@@ -9,11 +9,16 @@ import { Notice } from '../../components/notice';
 import { useMe } from '../../features/auth/api/get-me';
 import { useSessionConnection } from '../../features/collab/hooks/use-session-connection';
 import { LossesPanel, PickupPanel, RenderPanel, StringPanel } from '../../features/editor/components/patch-panels';
+import { HandleFields } from '../../features/editor/components/handle-fields';
 import { NoteKeyboard } from '../../features/editor/components/note-keyboard';
 import { PluckTool } from '../../features/editor/components/pluck-tool';
 import { PreviewAudition } from '../../features/editor/components/preview-audition';
 import { nextDisplayRangeM, StringCanvas } from '../../features/editor/components/string-canvas';
+import { StringMotion } from '../../features/editor/components/string-motion';
+import { stepSelection, type CanvasSelection } from '../../features/editor/geometry/canvas-selection';
 import { ResultsPanel } from '../../features/editor/results/results-panel';
+import { useContainerWidth } from '../../features/editor/results/use-container-width';
+import { usePresets } from '../../features/presets/api/get-presets';
 import { useSession } from '../../features/sessions/api/get-session';
 
 /** Colours given to people in a session, picked by their name so everyone sees the same one. */
@@ -21,19 +26,6 @@ const PEOPLE_COLOURS = ['#e8b64f', '#4cc7b8', '#ef8566', '#9b8cf2', '#7fc96b', '
 const colourFor = (name: string) => PEOPLE_COLOURS[[...name].reduce((sum, char) => sum + char.charCodeAt(0), 0) % PEOPLE_COLOURS.length];
 
 const connectionWords = { connecting: 'Connecting…', connected: 'Connected', reconnecting: 'Reconnecting…', offline: 'Offline' } as const;
-
-/** Width of an element, kept current (a callback ref, so it works for elements that mount later). */
-function useWidth<T extends HTMLElement>(): [(element: T | null) => void, number] {
-  const [width, setWidth] = useState(800);
-  const observer = useRef<ResizeObserver | null>(null);
-  const ref = useCallback((element: T | null) => {
-    observer.current?.disconnect();
-    if (!element) return;
-    observer.current = new ResizeObserver(([entry]) => setWidth(Math.max(320, Math.floor(entry.contentRect.width))));
-    observer.current.observe(element);
-  }, []);
-  return [ref, width];
-}
 
 function useDarkTheme(): boolean {
   const [dark, setDark] = useState(() => document.documentElement.classList.contains('dark'));
@@ -50,11 +42,14 @@ export default function SessionPage() {
   const { sessionId = '' } = useParams();
   const me = useMe();
   const session = useSession(sessionId);
+  const presets = usePresets(session.data?.studioId ?? '');
   const name = me.data?.user.displayName ?? 'someone';
   const { connection, snapshot } = useSessionConnection(sessionId, { name, colour: colourFor(name) });
-  const [canvasBox, widthPx] = useWidth<HTMLDivElement>();
+  const [canvasBox, widthPx] = useContainerWidth<HTMLDivElement>(800);
   const dark = useDarkTheme();
-  const [selected, setSelected] = useState<number | null>(null);
+  const [selected, setSelected] = useState<CanvasSelection | null>(null);
+  const [tool, setTool] = useState<'edit' | 'draw'>('edit');
+  const [strokeProblem, setStrokeProblem] = useState<string | null>(null);
   const [hoverMode, setHoverMode] = useState<number | null>(null);
   const [showStrike, setShowStrike] = useState(true);
   const [activeLayer, setActiveLayer] = useState<'displacement' | 'velocity'>('displacement');
@@ -86,17 +81,40 @@ export default function SessionPage() {
   rangeRef.current = nextDisplayRangeM(rangeRef.current, peakM);
   const displayRangeM = rangeRef.current;
 
-  /** Arrow keys move the selected point: 1 mm, or 0.1 mm with Shift. */
+  /**
+   * The canvas from the keyboard: ] and [ step through the handles, arrow keys move the selected
+   * one (1 mm along, 0.1 mm up or down; a tenth of that with Shift), Delete removes a point.
+   */
   const onCanvasKey = (event: React.KeyboardEvent) => {
-    if (selected === null || !patch || readOnly) return;
-    const step = (event.shiftKey ? 0.1 : 1) / 1000;
-    const [x, y] = patch.excitation.displacementM[selected + 1] ?? [];
-    if (x === undefined) return;
-    const moves: Record<string, [number, number]> = { ArrowLeft: [-step, 0], ArrowRight: [step, 0], ArrowUp: [0, step / 10], ArrowDown: [0, -step / 10] };
-    const move = moves[event.key];
-    if (!move) return;
+    if (!patch) return;
+    if (event.key === ']' || event.key === '[') {
+      event.preventDefault();
+      const counts = { displacement: patch.excitation.displacementM.length - 2, velocity: showStrike ? Math.max(0, (patch.excitation.velocityMPerS?.length ?? 2) - 2) : 0 };
+      return setSelected(stepSelection(selected, counts, event.key === ']' ? 1 : -1));
+    }
+    if (!selected || readOnly) return;
+    const fine = event.shiftKey ? 0.1 : 1;
+    const alongM = { ArrowLeft: -1, ArrowRight: 1 }[event.key as string];
+    const upDown = { ArrowUp: 1, ArrowDown: -1 }[event.key as string];
+    if (selected.layer === 'pickup') {
+      if (alongM === undefined) return;
+      event.preventDefault();
+      const lengthM = patch.string.lengthM;
+      const next = Math.min(lengthM * 0.999, Math.max(lengthM * 0.001, patch.pickup.positionM + (alongM * fine) / 1000));
+      return void connection.edit((doc) => patchDoc(doc).pickup.set('positionM', next));
+    }
+    const { layer, index } = selected;
+    if (event.key === 'Delete' || event.key === 'Backspace') {
+      event.preventDefault();
+      setSelected(null);
+      return void connection.edit((doc, origin) => void deletePoint(doc, layer, index, origin));
+    }
+    const [x, y] = (layer === 'displacement' ? patch.excitation.displacementM : patch.excitation.velocityMPerS)?.[index + 1] ?? [];
+    if (x === undefined || y === undefined || (alongM === undefined && upDown === undefined)) return;
     event.preventDefault();
-    connection.edit((doc, origin) => void movePoint(doc, 'displacement', selected, x + move[0], y + move[1], origin));
+    // Up and down: 0.1 mm of displacement, or 0.01 m/s of velocity, per press.
+    const valueStep = layer === 'displacement' ? 1e-4 : 1e-2;
+    connection.edit((doc, origin) => void movePoint(doc, layer, index, x + ((alongM ?? 0) * fine) / 1000, y + (upDown ?? 0) * fine * valueStep, origin));
   };
 
   return (
@@ -136,9 +154,9 @@ export default function SessionPage() {
       </section>
 
       <ErrorBoundary title="The string canvas">
-        <div ref={canvasBox} data-display-range-m={displayRangeM} tabIndex={0} onKeyDown={onCanvasKey} aria-label="String canvas: drag points, click the line to add one, double-click a point to remove it; arrow keys move the selected point" className="rounded-lg border border-slate-700/15 focus-visible:outline-2 focus-visible:outline-teal-400 dark:border-slate-300/10">
+        <div ref={canvasBox} data-display-range-m={displayRangeM} tabIndex={0} onKeyDown={onCanvasKey} aria-label="String canvas: drag points, click the line to add one, double-click a point to remove it; ] and [ select the next or previous handle, arrow keys move it, Delete removes it" className="rounded-lg border border-slate-700/15 focus-visible:outline-2 focus-visible:outline-teal-400 dark:border-slate-300/10">
           {patch ? (
-            <StringCanvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={hoverMode} displayRangeM={displayRangeM} showStrike={showStrike} activeLayer={activeLayer} selected={selected} onSelect={setSelected} dark={dark} />
+            <StringCanvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={hoverMode} displayRangeM={displayRangeM} showStrike={showStrike} activeLayer={activeLayer} selected={selected} onSelect={setSelected} tool={tool} onStrokeProblem={setStrokeProblem} dark={dark} />
           ) : (
             <LoadingBlock label="Syncing the string…" rows={3} />
           )}
@@ -146,6 +164,21 @@ export default function SessionPage() {
       </ErrorBoundary>
       {patch && (
         <section aria-label="Layers" className="flex flex-wrap items-center gap-4 text-sm">
+          <div role="radiogroup" aria-label="Canvas tool" className="flex overflow-hidden rounded-md border border-slate-700/30 dark:border-slate-300/20">
+            {(['edit', 'draw'] as const).map((option) => (
+              <button
+                key={option}
+                type="button"
+                role="radio"
+                aria-checked={tool === option}
+                disabled={readOnly && option === 'draw'}
+                onClick={() => setTool(option)}
+                className={`px-3 py-1 ${tool === option ? 'bg-teal-700 text-white dark:bg-teal-500 dark:text-slate-950' : ''} disabled:opacity-50`}
+              >
+                {option === 'edit' ? 'Edit points' : 'Draw freehand'}
+              </button>
+            ))}
+          </div>
           {patch.excitation.velocityMPerS ? (
             <>
               <label className="flex items-center gap-2">
@@ -167,6 +200,8 @@ export default function SessionPage() {
           )}
         </section>
       )}
+      {strokeProblem && <Notice tone="caution">{strokeProblem}</Notice>}
+      {patch && <HandleFields connection={connection} patch={patch} selection={selected} readOnly={readOnly} onDeleted={() => setSelected(null)} />}
       {snapshot.patchIssues.length > 0 && (
         <Notice tone="error" title="The string has a problem">
           {snapshot.patchIssues.map((issue) => issue.message).join('; ')}
@@ -174,7 +209,7 @@ export default function SessionPage() {
       )}
 
       <ErrorBoundary title="Audition">
-        <PreviewAudition result={snapshot.result} />
+        <PreviewAudition result={snapshot.result} comparisons={(presets.data ?? []).map((preset) => ({ id: preset.id, name: preset.name, url: `/api/presets/${preset.id}/preview.wav` }))} />
       </ErrorBoundary>
 
       {snapshot.result && (
@@ -186,6 +221,12 @@ export default function SessionPage() {
       <ErrorBoundary title="The results">
         <ResultsPanel result={snapshot.result} issues={snapshot.computeIssues} onHoverMode={setHoverMode} />
       </ErrorBoundary>
+
+      {patch && snapshot.result && (
+        <ErrorBoundary title="Slow motion">
+          <StringMotion result={snapshot.result} lengthM={patch.string.lengthM} dark={dark} />
+        </ErrorBoundary>
+      )}
 
       {patch && <NoteKeyboard patch={patch} />}
 

@@ -50,12 +50,13 @@ export async function setMasterVolumeDb(decibels: number): Promise<void> {
 }
 
 /** Plays a WAV from the server through the master volume and limiter; stops whatever was playing. */
-export async function playUrl(url: string): Promise<{ durationS: number }> {
+export async function playUrl(url: string, loop = false): Promise<{ durationS: number }> {
   const out = await ensureOutput();
   out.player?.stop();
   out.player?.dispose();
   const buffer = await out.tone.ToneAudioBuffer.fromUrl(url);
   const player = new out.tone.Player(buffer).connect(out.volume);
+  player.loop = loop;
   out.player = player;
   player.start();
   return { durationS: buffer.duration };

@@ -1,7 +1,7 @@
 import * as Y from 'yjs';
 import { describe, expect, it } from 'vitest';
 import { docPoint, patchDoc, patchFromDoc, validatedPatchFromDoc, writePatchToDoc } from '../../../shared/collab/patch-doc';
-import { insertPoint, movePoint, setLengthM } from '../../../shared/collab/point-edits';
+import { insertPoint, movePoint, replaceLayerPoints, setLengthM } from '../../../shared/collab/point-edits';
 import { validatePatch } from '../../../shared/patch/validate-patch';
 import { testPatch } from '../../support/patches';
 
@@ -69,5 +69,20 @@ describe('document ↔ patch', () => {
     if (!result.ok) return;
     expect(result.value.excitation.displacementM[1][0]).toBeCloseTo(0.34, 12);
     expect(result.value.pickup.positionM).toBeCloseTo(0.2, 12);
+  });
+  it('replaces a whole layer in one step (a freehand stroke), or refuses bad points and changes nothing', () => {
+    const doc = new Y.Doc();
+    writePatchToDoc(doc, validTestPatch());
+    const before = JSON.stringify(patchFromDoc(doc));
+    expect(replaceLayerPoints(doc, 'displacement', [[0.2, 0.001], [0.1, 0.002]])).toMatchObject({ ok: false });
+    expect(replaceLayerPoints(doc, 'displacement', [[0.2, Number.NaN]])).toMatchObject({ ok: false });
+    expect(replaceLayerPoints(doc, 'displacement', [[0.65, 0.001]])).toMatchObject({ ok: false });
+    expect(JSON.stringify(patchFromDoc(doc))).toBe(before);
+    let updates = 0;
+    doc.on('update', () => updates++);
+    expect(replaceLayerPoints(doc, 'displacement', [[0.1, 0.001], [0.2, 0.003], [0.4, -0.001]])).toEqual({ ok: true });
+    expect(updates).toBe(1);
+    const result = validatedPatchFromDoc(doc);
+    expect(result.ok && result.value.excitation.displacementM).toEqual([[0, 0], [0.1, 0.001], [0.2, 0.003], [0.4, -0.001], [0.65, 0]]);
   });
 });

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { docPoint, patchDoc } from '../../../../shared/collab/patch-doc';
+import { replaceLayerPoints } from '../../../../shared/collab/point-edits';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import { Button } from '../../../components/button';
 import type { SessionConnection } from '../../collab/api/session-connection';
@@ -17,10 +17,9 @@ export function PluckTool({ connection, patch, readOnly }: { connection: Session
     const shape = pluckShape({ lengthM: patch.string.lengthM, positionM: positionMm / 1000, heightM: heightMm / 1000, widthM: widthMm / 1000 });
     if (!shape.ok) return setProblem(shape.reason);
     setProblem(null);
-    connection.edit((doc) => {
-      const layer = patchDoc(doc).displacement;
-      layer.delete(0, layer.length);
-      layer.insert(0, shape.points.map(([x, y]) => docPoint(x, y)));
+    connection.edit((doc, origin) => {
+      const replaced = replaceLayerPoints(doc, 'displacement', shape.points, origin);
+      if (!replaced.ok) setProblem(replaced.reason);
     });
   };
   const keep = (setter: (value: number) => void) => (value: number) => {

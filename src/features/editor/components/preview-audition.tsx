@@ -1,26 +1,45 @@
 import { useCallback, useEffect, useState } from 'react';
 import { Button } from '../../../components/button';
-import { cautionSeen, playSamples, stopPlayback } from '../../audition/audio-output';
+import { cautionSeen, playSamples, playUrl, stopPlayback } from '../../audition/audio-output';
 import { AudioCaution } from '../../audition/components/audio-caution';
 import type { ComputeResult } from '../../collab/api/session-connection';
 
+/** A sound to compare the session's string with: a preset's preview, by its URL. */
+export interface ComparisonSound {
+  id: string;
+  name: string;
+  url: string;
+}
+
 /**
  * Plays the preview the server sent (space bar), once or looped, through the master volume and the
- * limiter. The first play on a device shows a short hearing-safety caution.
+ * limiter, and A/B against a preset's preview (key B switches). The first play on a device shows
+ * a short hearing-safety caution.
  */
-export function PreviewAudition({ result }: { result: ComputeResult | null }) {
+export function PreviewAudition({ result, comparisons = [] }: { result: ComputeResult | null; comparisons?: ComparisonSound[] }) {
   const [asking, setAsking] = useState(false);
   const [playing, setPlaying] = useState(false);
   const [loop, setLoop] = useState(false);
   const [info, setInfo] = useState<string | null>(null);
+  const [comparisonId, setComparisonId] = useState('');
+  const [side, setSide] = useState<'a' | 'b'>('a');
+  const comparison = comparisons.find((sound) => sound.id === comparisonId) ?? null;
+  const playingB = side === 'b' && comparison !== null;
 
   const play = useCallback(async () => {
+    if (playingB) {
+      const played = await playUrl(comparison.url, loop);
+      setPlaying(true);
+      setInfo(`B: ${comparison.name} · ${played.durationS.toFixed(2)} s`);
+      if (!loop) setTimeout(() => setPlaying(false), played.durationS * 1000);
+      return;
+    }
     if (!result) return;
     const played = await playSamples(result.preview, result.previewSampleRateHz, loop);
     setPlaying(true);
-    setInfo(`${played.bufferLength} samples at ${played.bufferSampleRateHz} Hz · audio ${played.contextState}`);
+    setInfo(`${comparison ? 'A: this string · ' : ''}${played.bufferLength} samples at ${played.bufferSampleRateHz} Hz · audio ${played.contextState}`);
     if (!loop) setTimeout(() => setPlaying(false), played.durationS * 1000);
-  }, [result, loop]);
+  }, [result, loop, playingB, comparison]);
 
   const toggle = useCallback(() => {
     if (playing) {
@@ -30,27 +49,79 @@ export function PreviewAudition({ result }: { result: ComputeResult | null }) {
     else void play();
   }, [playing, play]);
 
+  // Switching sides while something plays plays the other side at once, as an A/B should.
+  const switchSide = useCallback(
+    (next: 'a' | 'b') => {
+      setSide(next);
+      if (playing) void stopPlayback().then(() => setPlaying(false));
+    },
+    [playing],
+  );
+
   useEffect(() => {
     const onKey = (event: KeyboardEvent) => {
       const target = event.target as HTMLElement | null;
-      if (event.code !== 'Space' || target?.closest('input, textarea, select, button')) return;
-      event.preventDefault();
-      toggle();
+      if (target?.closest('input, textarea, select, button')) return;
+      if (event.code === 'Space') {
+        event.preventDefault();
+        toggle();
+      } else if (event.key.toLowerCase() === 'b' && comparison && !event.ctrlKey && !event.metaKey) {
+        event.preventDefault();
+        switchSide(side === 'a' ? 'b' : 'a');
+      }
     };
     window.addEventListener('keydown', onKey);
     return () => window.removeEventListener('keydown', onKey);
-  }, [toggle]);
+  }, [toggle, switchSide, side, comparison]);
 
   return (
     <section aria-label="Audition" className="flex flex-wrap items-center gap-3 rounded-lg border border-slate-700/15 p-3 dark:border-slate-300/10">
-      <Button onClick={toggle} disabledReason={result ? undefined : 'no preview yet'} aria-keyshortcuts="Space">
-        {playing ? '■ Stop' : '▶ Play preview'}
+      <Button onClick={toggle} disabledReason={result || playingB ? undefined : 'no preview yet'} aria-keyshortcuts="Space">
+        {playing ? '■ Stop' : playingB ? '▶ Play B' : '▶ Play preview'}
       </Button>
       <label className="flex items-center gap-2 text-sm">
         <input type="checkbox" checked={loop} onChange={(event) => setLoop(event.target.checked)} className="size-4 accent-brass-500" />
         Loop
       </label>
-      <span className="text-xs text-slate-600 dark:text-slate-300">Space bar plays and stops</span>
+      {comparisons.length > 0 && (
+        <>
+          <label className="flex items-center gap-2 text-sm">
+            Compare with
+            <select
+              value={comparisonId}
+              onChange={(event) => {
+                setComparisonId(event.target.value);
+                if (!event.target.value) setSide('a');
+              }}
+              className="rounded border border-slate-700/30 bg-white px-2 py-1 dark:border-slate-300/20 dark:bg-slate-900"
+            >
+              <option value="">no preset</option>
+              {comparisons.map((sound) => (
+                <option key={sound.id} value={sound.id}>
+                  {sound.name}
+                </option>
+              ))}
+            </select>
+          </label>
+          {comparison && (
+            <div role="radiogroup" aria-label="A/B" aria-keyshortcuts="B" className="flex overflow-hidden rounded-md border border-slate-700/30 text-sm dark:border-slate-300/20">
+              {(['a', 'b'] as const).map((option) => (
+                <button
+                  key={option}
+                  type="button"
+                  role="radio"
+                  aria-checked={side === option}
+                  onClick={() => switchSide(option)}
+                  className={`px-3 py-1 ${side === option ? 'bg-teal-700 text-white dark:bg-teal-500 dark:text-slate-950' : ''}`}
+                >
+                  {option === 'a' ? 'A: this string' : `B: ${comparison.name}`}
+                </button>
+              ))}
+            </div>
+          )}
+        </>
+      )}
+      <span className="text-xs text-slate-600 dark:text-slate-300">Space bar plays and stops{comparison ? '; B switches A/B' : ''}</span>
       {info && (
         <span className="text-xs text-slate-600 dark:text-slate-300" data-testid="audition-info">
           {info}

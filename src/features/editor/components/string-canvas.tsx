@@ -1,11 +1,14 @@
-import { useMemo } from 'react';
+import { useMemo, useRef } from 'react';
+import type Konva from 'konva';
 import { Circle, Group, Layer, Line, Rect, Stage, Text } from 'react-konva';
-import { deletePoint, insertPoint, movePoint } from '../../../../shared/collab/point-edits';
+import { deletePoint, insertPoint, movePoint, replaceLayerPoints } from '../../../../shared/collab/point-edits';
 import { patchDoc } from '../../../../shared/collab/patch-doc';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import type { Presence, SessionConnection } from '../../collab/api/session-connection';
 import { createCanvasScale } from '../geometry/canvas-scale';
-import { asPixels } from '../geometry/canvas-units';
+import { asPixels, type PixelPoint } from '../geometry/canvas-units';
+import { sameSelection, type CanvasSelection } from '../geometry/canvas-selection';
+import { polylineFromStroke } from '../geometry/freehand';
 import { niceTicks } from '../geometry/nice-ticks';
 
 export interface StringCanvasProps {
@@ -19,8 +22,12 @@ export interface StringCanvasProps {
   highlightMode: number | null;
   /** Displacement drawn at the top edge of the drawing area, metres (vertical exaggeration). */
   displayRangeM: number;
-  selected: number | null;
-  onSelect: (index: number | null) => void;
+  selected: CanvasSelection | null;
+  onSelect: (selection: CanvasSelection | null) => void;
+  /** 'edit' drags and adds points; 'draw' replaces the active layer with a freehand stroke. */
+  tool: 'edit' | 'draw';
+  /** Called with the reason when a stroke cannot become a shape, and with null when it did. */
+  onStrokeProblem: (reason: string | null) => void;
   /** Whether the strike layer (initial velocity) is drawn, and which layer a click on the line adds to. */
   showStrike: boolean;
   activeLayer: 'displacement' | 'velocity';
@@ -36,7 +43,7 @@ const MARGIN_PX = CANVAS_MARGIN_PX;
  * the shared edit helpers); a click on the line adds a point; the pickup is a handle on the axis.
  * Teammates' pointers and the points they drag show in their colours.
  */
-export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heightPx, highlightMode, displayRangeM, selected, onSelect, showStrike, activeLayer, dark }: StringCanvasProps) {
+export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heightPx, highlightMode, displayRangeM, selected, onSelect, tool, onStrokeProblem, showStrike, activeLayer, dark }: StringCanvasProps) {
   const lengthM = patch.string.lengthM;
   const points = patch.excitation.displacementM;
   const peakM = Math.max(1e-3, ...points.map(([, y]) => Math.abs(y)));
@@ -78,16 +85,52 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
 
   const edit = (change: Parameters<SessionConnection['edit']>[0]) => !readOnly && connection.edit(change);
   const draggingBy = new Map(peers.filter((peer) => peer.dragging?.layer === 'displacement').map((peer) => [peer.dragging!.index + 1, peer]));
+  const drawing = tool === 'draw' && !readOnly;
+  const drawLayer = activeLayer === 'velocity' && strike ? 'velocity' : 'displacement';
+  const strokeRef = useRef<PixelPoint[] | null>(null);
+  const strokeLine = useRef<Konva.Line>(null);
+  const pointerOf = (event: Konva.KonvaEventObject<MouseEvent>) => event.target.getStage()?.getPointerPosition() ?? null;
+  const extendStroke = (x: number, y: number) => {
+    strokeRef.current?.push([asPixels(x), asPixels(y)]);
+    strokeLine.current?.points(strokeRef.current?.flat() ?? []);
+    strokeLine.current?.getLayer()?.batchDraw();
+  };
+  const finishStroke = () => {
+    const stroke = strokeRef.current;
+    strokeRef.current = null;
+    strokeLine.current?.points([]);
+    if (!stroke || stroke.length < 2) return;
+    // The stroke is read on the scale of the layer it replaces (the strike layer has its own).
+    const mapping = createCanvasScale({ lengthM, widthPx, heightPx, marginPx: MARGIN_PX, displacementRangeM: drawLayer === 'velocity' ? velocityRangeMPerS : displayRangeM });
+    const drawn = polylineFromStroke(stroke, mapping);
+    if (!drawn.ok) return onStrokeProblem(`The stroke was not used: ${drawn.reason}.`);
+    onStrokeProblem(null);
+    onSelect(null);
+    edit((doc, origin) => void replaceLayerPoints(doc, drawLayer, drawn.points, origin));
+  };
 
   return (
     <Stage
       width={widthPx}
       height={heightPx}
-      onMouseMove={(event) => {
-        const pointer = event.target.getStage()?.getPointerPosition();
-        if (pointer) connection.setPresence({ pointerXM: Math.min(lengthM, Math.max(0, scale.pxToX(pointer.x))) });
+      onMouseDown={(event) => {
+        const pointer = pointerOf(event);
+        if (!drawing || !pointer) return;
+        strokeRef.current = [];
+        extendStroke(pointer.x, pointer.y);
       }}
-      onMouseLeave={() => connection.setPresence({ pointerXM: null })}
+      onMouseMove={(event) => {
+        const pointer = pointerOf(event);
+        if (!pointer) return;
+        connection.setPresence({ pointerXM: Math.min(lengthM, Math.max(0, scale.pxToX(pointer.x))) });
+        if (strokeRef.current) extendStroke(pointer.x, pointer.y);
+      }}
+      onMouseUp={finishStroke}
+      onMouseLeave={() => {
+        finishStroke();
+        connection.setPresence({ pointerXM: null });
+      }}
+      style={{ cursor: drawing ? 'crosshair' : undefined }}
     >
       <Layer>
         <Rect width={widthPx} height={heightPx} fill={dark ? '#171b22' : '#ffffff'} />
@@ -109,6 +152,7 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           stroke={colours.string}
           strokeWidth={2.5}
           hitStrokeWidth={14}
+          listening={!drawing}
           onClick={(event) => {
             const pointer = event.target.getStage()?.getPointerPosition();
             if (!pointer) return;
@@ -125,13 +169,14 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
               <Circle
                 x={scale.xToPx(xM)}
                 y={scale.yToPx(yM)}
-                radius={selected === docIndex ? 8 : 6}
+                radius={sameSelection(selected, { layer: 'displacement', index: docIndex }) ? 8 : 6}
                 fill={colours.point}
-                stroke={selected === docIndex ? colours.pickup : undefined}
+                stroke={sameSelection(selected, { layer: 'displacement', index: docIndex }) ? colours.pickup : undefined}
                 strokeWidth={2}
                 draggable={!readOnly}
+                listening={!drawing}
                 name={`point-${docIndex}`}
-                onMouseDown={() => onSelect(docIndex)}
+                onMouseDown={() => onSelect({ layer: 'displacement', index: docIndex })}
                 onDblClick={() => edit((doc, origin) => void deletePoint(doc, 'displacement', docIndex, origin))}
                 onDragStart={() => {
                   connection.beginGesture();
@@ -158,10 +203,14 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
                 key={`v-${docIndex}`}
                 x={scale.xToPx(xM)}
                 y={velocityToPx(vMPerS)}
-                radius={5}
+                radius={sameSelection(selected, { layer: 'velocity', index: docIndex }) ? 7 : 5}
                 fill={colours.pickup}
+                stroke={sameSelection(selected, { layer: 'velocity', index: docIndex }) ? colours.point : undefined}
+                strokeWidth={2}
                 draggable={!readOnly}
+                listening={!drawing}
                 name={`strike-point-${docIndex}`}
+                onMouseDown={() => onSelect({ layer: 'velocity', index: docIndex })}
                 onDragStart={() => {
                   connection.beginGesture();
                   connection.setPresence({ dragging: { layer: 'velocity', index: docIndex } });
@@ -180,6 +229,8 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           x={scale.xToPx(patch.pickup.positionM)}
           y={midPx}
           draggable={!readOnly}
+          listening={!drawing}
+          onMouseDown={() => onSelect({ layer: 'pickup' })}
           dragBoundFunc={(position) => ({ x: Math.min(widthPx - MARGIN_PX - 1, Math.max(MARGIN_PX + 1, position.x)), y: midPx })}
           onDragStart={() => {
             connection.beginGesture();
@@ -192,9 +243,10 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           }}
           name="pickup"
         >
-          <Line points={[0, -22, -7, -34, 7, -34]} closed fill={colours.pickup} />
+          <Line points={[0, -22, -7, -34, 7, -34]} closed fill={colours.pickup} stroke={selected?.layer === 'pickup' ? colours.point : undefined} strokeWidth={2} />
           <Text x={-30} y={-48} width={60} align="center" text="pickup" fontSize={10} fill={colours.pickup} />
         </Group>
+        <Line ref={strokeLine} points={[]} stroke={drawLayer === 'velocity' ? colours.pickup : colours.string} strokeWidth={1.5} opacity={0.7} listening={false} />
         {peers
           .filter((peer) => peer.pointerXM !== null)
           .map((peer) => (

@@ -35,7 +35,7 @@ export const getPresetsQueryOptions = (studioId: string, params: PresetListParam
   });
 };
 
-/** The studio's presets; while a new search loads, the previous rows stay on screen. */
+/** The studio's presets; while a new search loads, the previous rows stay on screen. Waits for a studio id. */
 export function usePresets(studioId: string, params: PresetListParams = {}) {
-  return useQuery({ ...getPresetsQueryOptions(studioId, params), placeholderData: keepPreviousData });
+  return useQuery({ ...getPresetsQueryOptions(studioId, params), placeholderData: keepPreviousData, enabled: studioId !== '' });
 }
