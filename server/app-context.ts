@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm';
 import type { Mailer } from './mail/mailer';
 import type { FakeMailbox } from './mail/fake-smtp-server';
 import type { CollabHub } from './collab/collab-hub';
+import type { RenderService } from './renders/render-service';
 
 export interface ServerConfig {
   /** Where links in e-mails point, e.g. http://localhost:3000. */
@@ -16,6 +17,10 @@ export interface ServerConfig {
   authRateLimit: { windowMs: number; limit: number };
   /** Secure cookies (HTTPS only) in production behind TLS. */
   secureCookies: boolean;
+  /** Where render files are written (data/renders by default). */
+  rendersDir: string;
+  /** Render storage per studio, bytes. */
+  renderQuotaBytes: number;
 }
 
 /** What every route receives: the database, the settings, the mail sender and (locally) the mailbox. */
@@ -28,4 +33,6 @@ export interface AppContext {
   log: (line: string) => void;
   /** The live documents, when the HTTP server runs the collaboration endpoint. */
   collab?: CollabHub;
+  /** Render jobs and their files (created with the app). */
+  renders?: RenderService;
 }

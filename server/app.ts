@@ -14,6 +14,7 @@ import { meRoutes } from './routes/me-routes';
 import { memberRoutes } from './routes/member-routes';
 import { patchRoutes } from './routes/patch-routes';
 import { presetRoutes } from './routes/preset-routes';
+import { renderRoutes } from './routes/render-routes';
 import { sessionRoutes } from './routes/session-routes';
 import { studioRoutes } from './routes/studio-routes';
 
@@ -44,7 +45,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
   app.get('/api/health', (_request, response) => {
     response.json({ ok: true });
   });
-  for (const routes of [authRoutes, meRoutes, studioRoutes, memberRoutes, invitationRoutes, sessionRoutes, presetRoutes, patchRoutes]) {
+  for (const routes of [authRoutes, meRoutes, studioRoutes, memberRoutes, invitationRoutes, sessionRoutes, presetRoutes, patchRoutes, renderRoutes]) {
     app.use('/api', routes(context));
   }
   if (context.mailbox) {

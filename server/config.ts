@@ -1,5 +1,6 @@
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { LIMITS } from '../shared/limits';
 import type { ServerConfig } from './app-context';
 import { loadJwtSecret } from './auth/jwt-secret';
 
@@ -20,6 +21,14 @@ export function databasePath(env: NodeJS.ProcessEnv = process.env): string {
   return env.DATABASE_PATH ?? join(DATA_DIR, 'tautline.sqlite');
 }
 
+/** RENDER_QUOTA_BYTES, or the default of LIMITS.renderQuotaBytes. */
+function renderQuotaBytes(env: NodeJS.ProcessEnv): number {
+  if (env.RENDER_QUOTA_BYTES === undefined) return LIMITS.renderQuotaBytes;
+  const bytes = Number(env.RENDER_QUOTA_BYTES);
+  if (!Number.isInteger(bytes) || bytes < 0) throw new Error(`RENDER_QUOTA_BYTES must be a whole number of bytes, got ${JSON.stringify(env.RENDER_QUOTA_BYTES)}`);
+  return bytes;
+}
+
 /** Settings from the environment; secrets never come from the repository. */
 export function loadServerConfig(env: NodeJS.ProcessEnv = process.env, port = serverPort(env)): ServerConfig {
   return {
@@ -31,5 +40,7 @@ export function loadServerConfig(env: NodeJS.ProcessEnv = process.env, port = se
     passwordResetLifetimeS: 3600,
     authRateLimit: { windowMs: 15 * 60 * 1000, limit: 20 },
     secureCookies: env.COOKIE_SECURE === 'true',
+    rendersDir: env.RENDERS_DIR ?? join(DATA_DIR, 'renders'),
+    renderQuotaBytes: renderQuotaBytes(env),
   };
 }

@@ -5,6 +5,8 @@ import { CollabHub } from './collab/collab-hub';
 import { typeormCollabStorage } from './collab/collab-storage';
 import { COLLAB_PATH, collabUpgradeHandler } from './collab/collab-upgrade';
 import { attachComputeChannel } from './compute/compute-channel';
+import { attachRenderChannel } from './renders/render-channel';
+import { RenderService } from './renders/render-service';
 
 export interface TautlineServer {
   server: Server;
@@ -15,7 +17,7 @@ export interface TautlineServer {
 
 /**
  * One HTTP server for everything: the Express app, the Yjs documents under /collab/ and the
- * socket.io compute channel under /socket.io/. Upgrades are routed by path; any other upgrade is
+ * socket.io compute and renders channels under /socket.io/. Upgrades are routed by path; any other upgrade is
  * refused.
  */
 export function createTautlineServer(context: AppContext, options: AppOptions & { previewDurationS?: number } = {}): TautlineServer {
@@ -23,6 +25,8 @@ export function createTautlineServer(context: AppContext, options: AppOptions & 
   context.collab = hub;
   const server = createServer(createApp(context, options));
   const compute = attachComputeChannel(server, context, hub, options.previewDurationS);
+  const renders = (context.renders ??= new RenderService(context));
+  const stopRenderChannel = attachRenderChannel(compute.io, context, renders);
   const collabUpgrade = collabUpgradeHandler(context, hub);
   server.on('upgrade', (request, socket, head) => {
     const path = request.url ?? '';
@@ -41,6 +45,8 @@ export function createTautlineServer(context: AppContext, options: AppOptions & 
         });
       }),
     close: async () => {
+      stopRenderChannel();
+      await renders.close();
       await hub.close();
       server.closeAllConnections?.();
       await compute.close(); // also closes the HTTP server

@@ -34,6 +34,29 @@ export const LIMITS = {
   computeMinIntervalMs: 16,
   /** Largest websocket message the collaboration endpoint accepts, in bytes. */
   maxCollabMessageBytes: 4 * 1024 * 1024,
+  /** Render jobs: a decay-cut render stops at most this long (and never before the shortest). */
+  renderMaxDurationS: 60,
+  renderMinDurationS: 0.05,
+  /** The decay threshold a render may be cut at, dB relative to its peak. */
+  renderDecayThresholdDb: { min: -120, max: -30 },
+  /** Fade applied at a decay cut, milliseconds. */
+  renderFadeMs: { min: 0, max: 500 },
+  /** Normalisation targets a render may ask for. */
+  renderPeakCeilingDbfs: { min: -30, max: 0 },
+  renderLoudnessTargetLufs: { min: -40, max: -6 },
+  renderTruePeakCeilingDbtp: { min: -12, max: 0 },
+  /** Longest render name, in characters. */
+  maxRenderNameLength: 120,
+  /** A multi-note set: at most this many notes and strengths, and files in all. */
+  noteSetMaxNotes: 49,
+  noteSetMaxStrengths: 5,
+  noteSetMaxFiles: 128,
+  /** Each note of a set lasts at most this long. */
+  noteSetMaxDurationS: 20,
+  /** Render storage per studio (files under data/renders), bytes; RENDER_QUOTA_BYTES overrides it. */
+  renderQuotaBytes: 2 * 1024 * 1024 * 1024,
+  /** Queued or running render jobs one studio may have at once. */
+  maxQueuedRendersPerStudio: 8,
   /** Largest patch JSON file the command line reads, in bytes. */
   maxPatchFileBytes: 4 * 1024 * 1024,
 } as const;

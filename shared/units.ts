@@ -21,6 +21,11 @@ export type RadiansPerMetre = number;
 export type Decibels = number;
 /** Decibels relative to digital full scale. */
 export type DecibelsFullScale = number;
+/**
+ * Loudness in loudness units relative to full scale, LUFS (the same scale as LKFS, ITU-R BS.1770-4).
+ * A loudness difference of 1 LU is 1 dB.
+ */
+export type LoudnessUnitsFullScale = number;
 export type SampleRate = number;
 /** A MIDI note number: 69 is A4, 60 is middle C. Fractional values are allowed (cents). */
 export type MidiNote = number;

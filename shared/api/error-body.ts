@@ -9,6 +9,8 @@ export type ApiErrorCode =
   | 'not_found'
   | 'conflict'
   | 'too_large'
+  | 'render_quota_full'
+  | 'too_many_renders'
   | 'rate_limited'
   | 'internal';
 

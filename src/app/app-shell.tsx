@@ -58,6 +58,9 @@ export function AppShell({ me, children }: { me: MeResponse; children: ReactNode
                 <NavLink to={`/studios/${studio.id}/presets`} className={navClass}>
                   Presets
                 </NavLink>
+                <NavLink to={`/studios/${studio.id}/renders`} className={navClass}>
+                  Renders
+                </NavLink>
                 {can(studio.role, 'manageMembers') && (
                   <NavLink to={`/studios/${studio.id}/members`} className={navClass}>
                     Members

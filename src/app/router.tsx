@@ -29,6 +29,7 @@ export function createAppRouter() {
         { path: '/studios/new', lazy: page(() => import('./routes/create-studio-page')) },
         { path: '/studios/:studioId', lazy: page(() => import('./routes/studio-home-page')) },
         { path: '/studios/:studioId/presets', lazy: page(() => import('./routes/presets-page')) },
+        { path: '/studios/:studioId/renders', lazy: page(() => import('./routes/renders-page')) },
         { path: '/studios/:studioId/members', lazy: page(() => import('./routes/members-page')) },
         { path: '/sessions/:sessionId', lazy: page(() => import('./routes/session-page')) },
         { path: '/account', lazy: page(() => import('./routes/account-page')) },

@@ -3,8 +3,10 @@
  * fails on a slow machine; each section reports its goals beside its figures.
  */
 import { collabBench } from './collab-bench';
+import { editorFpsBench } from './editor-fps-bench';
 import { engineBench } from './engine-bench';
 
 const engine = await engineBench();
 const collaboration = await collabBench();
-process.stdout.write(`${JSON.stringify({ ...engine, collaboration }, null, 2)}\n`);
+const editor = await editorFpsBench();
+process.stdout.write(`${JSON.stringify({ ...engine, collaboration, editor }, null, 2)}\n`);

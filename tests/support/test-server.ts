@@ -48,6 +48,8 @@ export async function startTestServer(overrides: Partial<ServerConfig> = {}, dat
     passwordResetLifetimeS: 3600,
     authRateLimit: { windowMs: 60_000, limit: 10_000 },
     secureCookies: false,
+    rendersDir: join(dir, 'renders'),
+    renderQuotaBytes: 512 * 1024 * 1024,
     ...overrides,
   };
   const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(Date.now() + offsetMs), log: () => {} };
@@ -61,6 +63,7 @@ export async function startTestServer(overrides: Partial<ServerConfig> = {}, dat
       offsetMs += ms;
     },
     close: async () => {
+      await context.renders?.close();
       mailer.close();
       await mailbox.close();
       await dataSource.destroy();

@@ -1,10 +1,10 @@
 import FFT from 'fft.js';
 import { describe, expect, it } from 'vitest';
 import { midiToFrequencyHz } from '../../../shared/designer/pitch';
-import { fundamentalFrequencyHz, modeFrequencyHz } from '../../../shared/engine/mode-frequencies';
+import { retunePatch } from '../../../shared/designer/retune-patch';
+import { modeFrequencyHz } from '../../../shared/engine/mode-frequencies';
 import { validatePatch } from '../../../shared/patch/validate-patch';
 import { renderNote, NOTE_DURATION_S, NOTE_PEAK } from '../../../src/features/editor/notes/render-note';
-import { retunePatch } from '../../../src/features/editor/notes/retune-patch';
 import { testPatch } from '../../support/patches';
 
 const patch = (() => {
@@ -14,10 +14,10 @@ const patch = (() => {
 })();
 
 describe('playing the string at other pitches', () => {
-  it('retunes by tension (Mersenne: f0 ∝ √T) and lets B fall as 1/T (Fletcher 1964)', () => {
+  it('retunes by tension so the first partial f0·√(1 + B) is the note, and lets B fall as 1/T (Fletcher 1964)', () => {
     for (const note of [48, 60, 64, 72]) {
-      const retuned = retunePatch(patch, note);
-      expect(fundamentalFrequencyHz(retuned.string)).toBeCloseTo(midiToFrequencyHz(note), 9);
+      const retuned = retunePatch(patch, note, 'tension');
+      expect(modeFrequencyHz(retuned.string, 1)).toBeCloseTo(midiToFrequencyHz(note), 9);
       expect(retuned.string.inharmonicityB * retuned.string.tensionN).toBeCloseTo(patch.string.inharmonicityB * patch.string.tensionN, 12);
       expect(retuned.string.lengthM).toBe(patch.string.lengthM);
     }
@@ -36,7 +36,7 @@ describe('playing the string at other pitches', () => {
     const spectrum = fft.createComplexArray();
     fft.realTransform(spectrum, input);
     const binHz = rendered.sampleRateHz / size;
-    const expected = modeFrequencyHz(retunePatch(patch, note).string, 1);
+    const expected = modeFrequencyHz(retunePatch(patch, note, 'tension').string, 1);
     let best = 0;
     let bestBin = 0;
     for (let bin = Math.floor((expected * 0.8) / binHz); bin < (expected * 1.2) / binHz; bin++) {

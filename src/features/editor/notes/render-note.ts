@@ -1,9 +1,9 @@
 import { samplePeak } from '../../../../shared/audio/peak';
+import { retunePatch } from '../../../../shared/designer/retune-patch';
 import { previewPatch } from '../../../../shared/engine/preview-patch';
 import { renderPatch } from '../../../../shared/engine/render-patch';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import { validatePatch } from '../../../../shared/patch/validate-patch';
-import { retunePatch } from './retune-patch';
 
 /** Length of a played note, seconds. */
 export const NOTE_DURATION_S = 1.5;
@@ -15,7 +15,7 @@ export const NOTE_PEAK = 0.5;
  * resampled), short and at no more than 48 kHz so it is ready within a few milliseconds.
  */
 export function renderNote(patch: Patch, midiNote: number): { samples: Float32Array; sampleRateHz: number } | { error: string } {
-  const retuned = validatePatch(retunePatch(patch, midiNote));
+  const retuned = validatePatch(retunePatch(patch, midiNote, 'tension'));
   if (!retuned.ok) return { error: retuned.issues[0].message };
   const short = previewPatch(retuned.value, NOTE_DURATION_S);
   const rendered = renderPatch(short);

@@ -1,0 +1,47 @@
+import { io, type Socket } from 'socket.io-client';
+import { RENDER_EVENTS, type RenderProgressMessage, type RenderRefusedMessage, type RenderSubscribeRequest } from '../../../../shared/protocol/render-protocol';
+
+/** connecting: not yet following; live: progress arrives; refused: the server said no; offline: the socket is down and retrying. */
+export type RenderChannelState = 'connecting' | 'live' | 'refused' | 'offline';
+
+export interface RenderProgressChannelOptions {
+  /** e.g. http://localhost:3000 (the page's origin in the browser). */
+  baseUrl: string;
+  studioId: string;
+  onProgress: (message: RenderProgressMessage) => void;
+  onState: (state: RenderChannelState, refused: RenderRefusedMessage | null) => void;
+  /** Called when following starts again after a drop: messages sent meanwhile were missed. */
+  onRejoined?: () => void;
+}
+
+/**
+ * Follows one studio's render jobs over socket.io (the same server and path as the compute
+ * channel, signed in by cookie): subscribes on every connect, and passes on the progress
+ * messages of that studio only. Framework-free; `useRenderProgress` wraps it for React.
+ */
+export function openRenderProgressChannel({ baseUrl, studioId, onProgress, onState, onRejoined }: RenderProgressChannelOptions): { close: () => void } {
+  const socket: Socket = io(baseUrl, { path: '/socket.io/', transports: ['websocket'], withCredentials: true });
+  let joinedBefore = false;
+  const request: RenderSubscribeRequest = { studioId };
+
+  socket.on('connect', () => socket.emit(RENDER_EVENTS.subscribe, request));
+  socket.on(RENDER_EVENTS.joined, () => {
+    onState('live', null);
+    if (joinedBefore) onRejoined?.();
+    joinedBefore = true;
+  });
+  socket.on(RENDER_EVENTS.refused, (message: RenderRefusedMessage) => onState('refused', message));
+  socket.on(RENDER_EVENTS.progress, (message: RenderProgressMessage) => {
+    if (message?.studioId === studioId) onProgress(message);
+  });
+  socket.on('disconnect', () => onState('offline', null));
+  socket.on('connect_error', () => onState('offline', null));
+
+  return {
+    close: () => {
+      if (socket.connected) socket.emit(RENDER_EVENTS.unsubscribe, request);
+      socket.removeAllListeners();
+      socket.disconnect();
+    },
+  };
+}

@@ -1,0 +1,69 @@
+import { describe, expect, it } from 'vitest';
+import { bankSegment } from '../../../shared/engine/bank-segment';
+import { buildOscillatorBank } from '../../../shared/engine/oscillator-bank';
+import { computeModeTable } from '../../../shared/engine/mode-table';
+import { renderBank } from '../../../shared/engine/render-bank';
+import { validatePatch } from '../../../shared/patch/validate-patch';
+import { testPatch } from '../../support/patches';
+
+function bankOf(overrides: object, sampleCount: number) {
+  const checked = validatePatch(testPatch(overrides));
+  if (!checked.ok) throw new Error(checked.issues[0].message);
+  return buildOscillatorBank(checked.value, computeModeTable(checked.value), sampleCount);
+}
+
+function renderWhole(overrides: object, sampleCount: number): Float64Array {
+  const out = new Float64Array(sampleCount);
+  renderBank(bankOf(overrides, sampleCount), out);
+  return out;
+}
+
+function renderInSegments(overrides: object, sampleCount: number, cuts: number[]): Float64Array {
+  const bank = bankOf(overrides, sampleCount);
+  const out = new Float64Array(sampleCount);
+  const edges = [0, ...cuts, sampleCount];
+  for (let i = 0; i + 1 < edges.length; i++) {
+    const segment = new Float64Array(edges[i + 1] - edges[i]);
+    renderBank(bankSegment(bank, edges[i], segment.length), segment);
+    out.set(segment, edges[i]);
+  }
+  return out;
+}
+
+function worstDifference(a: Float64Array, b: Float64Array): number {
+  let peak = 0;
+  let worst = 0;
+  for (let i = 0; i < a.length; i++) {
+    peak = Math.max(peak, Math.abs(a[i]));
+    worst = Math.max(worst, Math.abs(a[i] - b[i]));
+  }
+  return worst / peak;
+}
+
+describe('rendering in time segments', () => {
+  it('joins into the same samples as one render (ringing modes, stiffness, both loss terms)', () => {
+    const overrides = { string: { lengthM: 0.65, tensionN: 70, linearDensityKgPerM: 6e-4, inharmonicityB: 3e-4 }, render: { sampleRateHz: 48000, durationS: 1.5, maxModes: 200 } };
+    const samples = 72_000;
+    const whole = renderWhole(overrides, samples);
+    // Uneven cuts, one inside the first render block, so no block boundary hides an error.
+    expect(worstDifference(renderInSegments(overrides, samples, [100, 30_001, 65_536]), whole)).toBeLessThan(1e-9);
+  });
+
+  it('also for heavily damped (slow-bank) modes, advanced by powers of their transition matrix', () => {
+    // Very short decay times at a low pitch make the low modes overdamped: the 2×2 bank.
+    const overrides = { string: { lengthM: 0.65, tensionN: 4, linearDensityKgPerM: 6e-3, inharmonicityB: 0 }, damping: { b1PerS: 200, b2M2PerS: 0.02 }, render: { sampleRateHz: 44100, durationS: 1, maxModes: 64 } };
+    const bank = bankOf(overrides, 44_100);
+    expect(bank.slow.count).toBeGreaterThan(0);
+    expect(worstDifference(renderInSegments(overrides, 44_100, [7, 10_000, 22_050]), renderWhole(overrides, 44_100))).toBeLessThan(1e-9);
+  });
+
+  it('leaves the bank it was given untouched, and a segment past every oscillator is silent', () => {
+    const bank = bankOf({ render: { sampleRateHz: 48000, durationS: 0.5, maxModes: 32 } }, 24_000);
+    const before = Float64Array.from(bank.fast.stateRe);
+    const late = bankSegment(bank, 10 ** 12, 512);
+    expect(bank.fast.stateRe).toEqual(before);
+    const out = new Float64Array(512);
+    renderBank(late, out);
+    expect(out.every((value) => value === 0)).toBe(true);
+  });
+});
