@@ -19,28 +19,26 @@ export type ProgressSink = (fraction: number) => void;
  */
 export async function renderWavFile(pool: RenderTaskPool, job: { id: string; fileKey: string }, patch: Patch, output: RenderOutput, metadata: WavMetadata, ditherSeed: number, onProgress: ProgressSink, fixedGain?: number): Promise<FinishResult> {
   const jobId = job.id;
-  const rendered = patchForOutput(patch, output);
+  const forOutput = patchForOutput(patch, output);
   const plan = await pool.run(jobId, { type: 'plan', patch, output });
-  const totalWork = plan.channels.reduce((sum, channel) => sum + channel.segments.reduce((s, segment) => s + segment.work, 0), 0);
+  const totalWork = plan.segments.reduce((sum, segment) => sum + segment.work, 0);
   let doneWork = 0;
-  const channels = plan.channels.map(() => new Float64Array(plan.totalSamples));
+  const channels = plan.pickupsM.map(() => new Float64Array(plan.totalSamples));
   await Promise.all(
-    plan.channels.flatMap((channel, c) =>
-      channel.segments.map(async (segment) => {
-        const { samples } = await pool.run(jobId, {
-          type: 'segment',
-          cacheKey: `${jobId}:${job.fileKey}:${c}`,
-          patch: rendered,
-          pickupM: plan.pickupsM[c],
-          totalSamples: plan.totalSamples,
-          start: segment.start,
-          count: segment.count,
-        });
-        channels[c].set(samples, segment.start);
-        doneWork += segment.work;
-        onProgress((RENDER_SHARE * doneWork) / totalWork);
-      }),
-    ),
+    plan.segments.map(async (segment) => {
+      const rendered = await pool.run(jobId, {
+        type: 'segment',
+        cacheKey: `${jobId}:${job.fileKey}`,
+        patch: forOutput,
+        pickupsM: plan.pickupsM,
+        totalSamples: plan.totalSamples,
+        start: segment.start,
+        count: segment.count,
+      });
+      rendered.channels.forEach((samples, c) => channels[c].set(samples, segment.start));
+      doneWork += segment.work;
+      onProgress((RENDER_SHARE * doneWork) / totalWork);
+    }),
   );
   const finished = await pool.run(
     jobId,

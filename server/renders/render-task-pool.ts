@@ -27,7 +27,7 @@ interface Slot {
   running: Pending | null;
 }
 
-type ResultOf<T extends RenderTask['type']> = T extends 'plan' ? PlanResult : T extends 'segment' ? { samples: Float64Array } : T extends 'finish' ? FinishResult : { bytes: Uint8Array };
+type ResultOf<T extends RenderTask['type']> = T extends 'plan' ? PlanResult : T extends 'segment' ? { channels: Float64Array[] } : T extends 'finish' ? FinishResult : { bytes: Uint8Array };
 
 /**
  * Worker threads for render jobs, one per core, fed from one first-in first-out queue of tasks.

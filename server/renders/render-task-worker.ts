@@ -1,17 +1,25 @@
+import { setPriority } from 'node:os';
 import { parentPort } from 'node:worker_threads';
 import JSZip from 'jszip';
 import { bankSegment } from '../../shared/engine/bank-segment';
 import { computeModeTable } from '../../shared/engine/mode-table';
 import type { OscillatorBank } from '../../shared/engine/oscillator-bank';
-import { renderBank } from '../../shared/engine/render-bank';
 import { renderSampleCount } from '../../shared/engine/render-patch';
 import { seededRandom } from '../../shared/random/seeded-random';
 import { finishRender } from '../../shared/renders/finish-render';
-import { channelBank, channelPickupsM, decayedLengthSamples, patchForOutput, planSegments } from '../../shared/renders/render-plan';
+import { channelPickupsM, decayedLengthSamples, patchForOutput, planSegments, renderBankFor, renderChannels } from '../../shared/renders/render-plan';
 import { encodeWav } from '../audio/encode-wav';
 import type { FinishResult, PlanResult, RenderTask, RenderTaskResult, TaskReply, TaskRequest } from './render-tasks';
 
-/** The last channels' oscillators, so the segments of one channel build them once. */
+// Renders yield the processor to the server's own thread: on Linux a nice value belongs to a thread,
+// and `setPriority(0, …)` sets this worker's alone, so requests and live edits keep their turn.
+try {
+  setPriority(0, 10);
+} catch {
+  // Not permitted or not supported here: run at normal priority.
+}
+
+/** The last renders' oscillators, so the segments of one render build them once. */
 const banks = new Map<string, OscillatorBank>();
 const KEPT_BANKS = 4;
 
@@ -20,22 +28,19 @@ function plan(task: Extract<RenderTask, { type: 'plan' }>): PlanResult {
   const table = computeModeTable(patch);
   const pickupsM = channelPickupsM(patch, task.output);
   const maxSamples = renderSampleCount(patch);
-  const full = pickupsM.map((pickupM) => channelBank(patch, table, pickupM, maxSamples));
-  const totalSamples = task.output.length.kind === 'untilDecayed' ? decayedLengthSamples(full, patch.render.sampleRateHz, task.output.length.thresholdDb) : maxSamples;
-  return { totalSamples, pickupsM, modeCount: table.count, channels: full.map((bank) => ({ segments: planSegments(bank, totalSamples) })) };
+  const bank = renderBankFor(patch, table, pickupsM, maxSamples);
+  const totalSamples = task.output.length.kind === 'untilDecayed' ? decayedLengthSamples(bank, patch.render.sampleRateHz, task.output.length.thresholdDb) : maxSamples;
+  return { totalSamples, pickupsM, modeCount: table.count, segments: planSegments(bank, totalSamples) };
 }
 
-function segment(task: Extract<RenderTask, { type: 'segment' }>): Float64Array {
+function segment(task: Extract<RenderTask, { type: 'segment' }>): Float64Array[] {
   let bank = banks.get(task.cacheKey);
   if (!bank) {
-    const table = computeModeTable(task.patch);
-    bank = channelBank(task.patch, table, task.pickupM, task.totalSamples);
+    bank = renderBankFor(task.patch, computeModeTable(task.patch), task.pickupsM, task.totalSamples);
     banks.set(task.cacheKey, bank);
     while (banks.size > KEPT_BANKS) banks.delete(banks.keys().next().value as string);
   }
-  const out = new Float64Array(task.count);
-  renderBank(bankSegment(bank, task.start, task.count), out);
-  return out;
+  return renderChannels(bankSegment(bank, task.start, task.count), task.count);
 }
 
 function finish(task: Extract<RenderTask, { type: 'finish' }>): FinishResult {
@@ -54,13 +59,13 @@ async function zip(task: Extract<RenderTask, { type: 'zip' }>): Promise<Uint8Arr
 
 async function run(task: RenderTask): Promise<RenderTaskResult> {
   if (task.type === 'plan') return plan(task);
-  if (task.type === 'segment') return { samples: segment(task) };
+  if (task.type === 'segment') return { channels: segment(task) };
   if (task.type === 'finish') return finish(task);
   return { bytes: await zip(task) };
 }
 
 function transferables(result: RenderTaskResult): ArrayBuffer[] {
-  if ('samples' in result) return [result.samples.buffer as ArrayBuffer];
+  if ('channels' in result) return result.channels.map((channel) => channel.buffer as ArrayBuffer);
   if ('bytes' in result && result.bytes.byteOffset === 0 && result.bytes.byteLength === result.bytes.buffer.byteLength) return [result.bytes.buffer as ArrayBuffer];
   return [];
 }

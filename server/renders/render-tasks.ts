@@ -11,8 +11,8 @@ import type { WavMetadata } from '../audio/encode-wav';
 export type RenderTask =
   /** Length and segments of each channel of a patch. */
   | { type: 'plan'; patch: Patch; output: RenderOutput }
-  /** Samples [start, start + count) of one channel (the worker keeps the channel's bank between segments). */
-  | { type: 'segment'; cacheKey: string; patch: Patch; pickupM: number; totalSamples: number; start: number; count: number }
+  /** Samples [start, start + count) of every channel (the worker keeps the render's oscillators between segments). */
+  | { type: 'segment'; cacheKey: string; patch: Patch; pickupsM: number[]; totalSamples: number; start: number; count: number }
   /** Cut, fade, level, measure and encode the channels as a WAV file. */
   | { type: 'finish'; channels: Float64Array[]; sampleRateHz: number; output: RenderOutput; metadata: WavMetadata; ditherSeed: number; fixedGain?: number }
   /** Pack files into a ZIP. */
@@ -20,8 +20,9 @@ export type RenderTask =
 
 export interface PlanResult {
   totalSamples: number;
+  /** One pickup per channel. */
   pickupsM: number[];
-  channels: Array<{ segments: RenderSegment[] }>;
+  segments: RenderSegment[];
   modeCount: number;
 }
 
@@ -38,7 +39,7 @@ export interface FinishResult {
   clippedCount: number;
 }
 
-export type RenderTaskResult = PlanResult | { samples: Float64Array } | FinishResult | { bytes: Uint8Array };
+export type RenderTaskResult = PlanResult | { channels: Float64Array[] } | FinishResult | { bytes: Uint8Array };
 
 /** Messages between the pool and a worker. */
 export interface TaskRequest {

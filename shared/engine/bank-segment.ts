@@ -24,6 +24,7 @@ function fastSegment(bank: FastOscillators, start: number, sampleCount: number):
     stepRe: Float64Array.from(bank.stepRe),
     stepIm: Float64Array.from(bank.stepIm),
     activeSamples: new Float64Array(count),
+    ...(bank.gainA && bank.gainB ? { gainA: Float64Array.from(bank.gainA), gainB: Float64Array.from(bank.gainB) } : {}),
   };
   for (let j = 0; j < count; j++) {
     const remaining = bank.activeSamples[j] - start;
@@ -55,6 +56,7 @@ function slowSegment(bank: SlowOscillators, start: number, sampleCount: number):
     m21: Float64Array.from(bank.m21),
     m22: Float64Array.from(bank.m22),
     activeSamples: new Float64Array(count),
+    ...(bank.gainA && bank.gainB ? { gainA: Float64Array.from(bank.gainA), gainB: Float64Array.from(bank.gainB) } : {}),
   };
   for (let j = 0; j < count; j++) {
     const remaining = bank.activeSamples[j] - start;

@@ -36,6 +36,9 @@ export interface FastOscillators {
   stepRe: Float64Array;
   stepIm: Float64Array;
   activeSamples: Float64Array;
+  /** A stereo bank: the state holds the mode itself, and each channel weighs it by its own pickup. */
+  gainA?: Float64Array;
+  gainB?: Float64Array;
 }
 
 /** Heavily damped modes: state (q, u = q'/ω) advanced by [[m11, m12], [m21, m22]] each sample. */
@@ -48,6 +51,8 @@ export interface SlowOscillators {
   m21: Float64Array;
   m22: Float64Array;
   activeSamples: Float64Array;
+  gainA?: Float64Array;
+  gainB?: Float64Array;
 }
 
 export const CUT_RATIO = 2 ** -60;
@@ -59,6 +64,8 @@ interface Prepared {
   q0: number;
   p0: number;
   amplitude: number;
+  /** Stereo: the two pickups' weights, and the larger of them (which sizes the mode). */
+  gains?: { a: number; b: number; largest: number };
 }
 
 /** Samples until an envelope e^(−rate·t)·amplitude falls below `floor`, capped at sampleCount. */
@@ -69,15 +76,20 @@ function samplesUntilBelow(amplitude: number, floor: number, ratePerSample: numb
 }
 
 /** Builds the oscillators of a patch's kept modes for a render of `sampleCount` samples. */
-export function buildOscillatorBank(patch: Patch, table: ModeTable, sampleCount: number): OscillatorBank {
+export function buildOscillatorBank(patch: Patch, table: ModeTable, sampleCount: number, secondPickupM?: number): OscillatorBank {
   const { string, pickup, render } = patch;
+  const stereo = secondPickupM !== undefined;
   const dt = 1 / render.sampleRateHz;
   const readsVelocity = pickupReadsVelocity(pickup.output);
 
   const prepared: Prepared[] = [];
   let loudest = 0;
   for (let m = 0; m < table.count; m++) {
-    const weight = pickupWeight(string, pickup.output, pickup.positionM, m + 1);
+    const weightA = pickupWeight(string, pickup.output, pickup.positionM, m + 1);
+    const gains = stereo ? { a: weightA, b: pickupWeight(string, pickup.output, secondPickupM, m + 1), largest: 0 } : undefined;
+    if (gains) gains.largest = Math.max(Math.abs(gains.a), Math.abs(gains.b));
+    // Mono folds the pickup's weight into the state; stereo keeps the mode and weighs it per channel.
+    const weight = gains ? 1 : weightA;
     const sigma = table.decayRatePerS[m];
     const omega = 2 * Math.PI * table.frequencyHz[m];
     const a = table.aM[m];
@@ -85,10 +97,10 @@ export function buildOscillatorBank(patch: Patch, table: ModeTable, sampleCount:
     const q0 = weight * (readsVelocity ? v : a);
     const p0 = weight * (readsVelocity ? -2 * sigma * v - omega * omega * a : v);
     // |q(t)| ≤ |q0| + |p0|/ω·(a bounded factor): a cheap bound of the mode's size.
-    const amplitude = Math.abs(q0) + Math.abs(p0) / omega;
+    const amplitude = (Math.abs(q0) + Math.abs(p0) / omega) * (gains ? gains.largest : 1);
     if (amplitude === 0) continue;
     loudest = Math.max(loudest, amplitude);
-    prepared.push({ sigma, omega, q0, p0, amplitude });
+    prepared.push({ sigma, omega, q0, p0, amplitude, gains });
   }
   const floor = loudest * CUT_RATIO;
   const kept = prepared.filter((mode) => mode.amplitude >= floor);
@@ -99,15 +111,16 @@ export function buildOscillatorBank(patch: Patch, table: ModeTable, sampleCount:
 }
 
 function buildFast(modes: Prepared[], floor: number, dt: number, sampleCount: number): FastOscillators {
-  const rows = modes.map(({ sigma, omega, q0, p0 }) => {
+  const rows = modes.map(({ sigma, omega, q0, p0, gains }) => {
     const omegaD = Math.sqrt((omega - sigma) * (omega + sigma));
     const re = q0;
     const im = -(p0 + sigma * q0) / omegaD;
     const decay = Math.exp(-sigma * dt);
-    const size = Math.hypot(re, im);
+    const size = Math.hypot(re, im) * (gains ? gains.largest : 1);
     return {
       re,
       im,
+      gains,
       stepRe: decay * Math.cos(omegaD * dt),
       stepIm: decay * Math.sin(omegaD * dt),
       active: samplesUntilBelow(size, floor, sigma * dt, sampleCount),
@@ -122,8 +135,13 @@ function buildFast(modes: Prepared[], floor: number, dt: number, sampleCount: nu
     stepRe: new Float64Array(count),
     stepIm: new Float64Array(count),
     activeSamples: new Float64Array(count),
+    ...(modes.some((mode) => mode.gains) ? { gainA: new Float64Array(count), gainB: new Float64Array(count) } : {}),
   };
   rows.forEach((row, j) => {
+    if (row.gains && bank.gainA && bank.gainB) {
+      bank.gainA[j] = row.gains.a;
+      bank.gainB[j] = row.gains.b;
+    }
     bank.stateRe[j] = row.re;
     bank.stateIm[j] = row.im;
     bank.stepRe[j] = row.stepRe;
@@ -144,8 +162,13 @@ function buildSlow(modes: Prepared[], floor: number, dt: number, sampleCount: nu
     m21: new Float64Array(count),
     m22: new Float64Array(count),
     activeSamples: new Float64Array(count),
+    ...(modes.some((mode) => mode.gains) ? { gainA: new Float64Array(count), gainB: new Float64Array(count) } : {}),
   };
-  modes.forEach(({ sigma, omega, q0, p0, amplitude }, j) => {
+  modes.forEach(({ sigma, omega, q0, p0, amplitude, gains }, j) => {
+    if (gains && bank.gainA && bank.gainB) {
+      bank.gainA[j] = gains.a;
+      bank.gainB[j] = gains.b;
+    }
     // One-sample transition of the exact solution:
     //   q(Δt) = e^(−σΔt)[(C + σS)·q + S·q'],  q'(Δt) = e^(−σΔt)[−ω²S·q + (C − σS)·q'],
     // with C = cos(ω_dΔt), S = sin(ω_dΔt)/ω_d when ringing, C = cosh(γΔt), S = sinh(γΔt)/γ,

@@ -9,12 +9,14 @@ function pickFast(bank: FastOscillators, groups: number[]): FastOscillators {
     stepRe: new Float64Array(count),
     stepIm: new Float64Array(count),
     activeSamples: new Float64Array(count),
+    ...(bank.gainA ? { gainA: new Float64Array(count), gainB: new Float64Array(count) } : {}),
   };
   groups.forEach((group, index) => {
     const from = group * FAST_GROUP;
     const to = index * FAST_GROUP;
-    for (const key of ['stateRe', 'stateIm', 'stepRe', 'stepIm', 'activeSamples'] as const) {
-      part[key].set(bank[key].subarray(from, from + FAST_GROUP), to);
+    for (const key of ['stateRe', 'stateIm', 'stepRe', 'stepIm', 'activeSamples', 'gainA', 'gainB'] as const) {
+      const source = bank[key];
+      if (source) (part[key] as Float64Array).set(source.subarray(from, from + FAST_GROUP), to);
     }
   });
   return part;
@@ -22,10 +24,10 @@ function pickFast(bank: FastOscillators, groups: number[]): FastOscillators {
 
 function pickSlow(bank: SlowOscillators, indices: number[]): SlowOscillators {
   const count = indices.length;
-  const keys = ['q', 'u', 'm11', 'm12', 'm21', 'm22', 'activeSamples'] as const;
+  const keys = ['q', 'u', 'm11', 'm12', 'm21', 'm22', 'activeSamples', ...(bank.gainA ? (['gainA', 'gainB'] as const) : [])] as const;
   const part = Object.fromEntries(keys.map((key) => [key, new Float64Array(count)])) as Omit<SlowOscillators, 'count'>;
   indices.forEach((from, to) => {
-    for (const key of keys) part[key][to] = bank[key][from];
+    for (const key of keys) (part[key] as Float64Array)[to] = (bank[key] as Float64Array)[from];
   });
   return { count, ...part };
 }

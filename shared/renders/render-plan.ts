@@ -3,6 +3,7 @@ import { bankSegment } from '../engine/bank-segment';
 import type { ModeTable } from '../engine/mode-table';
 import { buildOscillatorBank, FAST_GROUP, type OscillatorBank } from '../engine/oscillator-bank';
 import { renderBank } from '../engine/render-bank';
+import { renderBankStereo } from '../engine/render-bank-stereo';
 import type { Patch } from '../patch/patch-schema';
 import type { RenderOutput } from './render-settings';
 
@@ -36,9 +37,25 @@ export function withPickupM(patch: Patch, positionM: number): Patch {
   return { ...patch, pickup: { ...patch.pickup, positionM } };
 }
 
-/** The oscillators of one channel for `sampleCount` samples. */
-export function channelBank(patch: Patch, table: ModeTable, pickupM: number, sampleCount: number): OscillatorBank {
-  return buildOscillatorBank(withPickupM(patch, pickupM), table, sampleCount);
+/**
+ * The oscillators of a render for `sampleCount` samples: mono at one pickup, or stereo (two
+ * pickups reading one set of oscillators, see `renderBankStereo`).
+ */
+export function renderBankFor(patch: Patch, table: ModeTable, pickupsM: ReadonlyArray<number>, sampleCount: number): OscillatorBank {
+  return buildOscillatorBank(withPickupM(patch, pickupsM[0]), table, sampleCount, pickupsM[1]);
+}
+
+/** Renders a bank (or a segment of one) into one channel per pickup. */
+export function renderChannels(bank: OscillatorBank, sampleCount: number): Float64Array[] {
+  if (!bank.fast.gainA && !bank.slow.gainA) {
+    const out = new Float64Array(sampleCount);
+    renderBank(bank, out);
+    return [out];
+  }
+  const outA = new Float64Array(sampleCount);
+  const outB = new Float64Array(sampleCount);
+  renderBankStereo(bank, outA, outB);
+  return [outA, outB];
 }
 
 /**
@@ -49,12 +66,14 @@ export function channelBank(patch: Patch, table: ModeTable, pickupM: number, sam
 function envelopeBound(bank: OscillatorBank, k: number): number {
   let bound = 0;
   const { fast, slow } = bank;
+  // A stereo bank's channels weigh each mode by their pickup: the larger weight bounds both.
+  const largest = (gainA: Float64Array | undefined, gainB: Float64Array | undefined, j: number) => (gainA && gainB ? Math.max(Math.abs(gainA[j]), Math.abs(gainB[j])) : 1);
   for (let j = 0; j < fast.count; j++) {
     if (fast.activeSamples[j] <= k) continue;
     const magnitude = Math.hypot(fast.stepRe[j], fast.stepIm[j]);
-    bound += Math.hypot(fast.stateRe[j], fast.stateIm[j]) * Math.exp(k * Math.log(magnitude));
+    bound += Math.hypot(fast.stateRe[j], fast.stateIm[j]) * largest(fast.gainA, fast.gainB, j) * Math.exp(k * Math.log(magnitude));
   }
-  for (let j = 0; j < slow.count; j++) if (slow.activeSamples[j] > k) bound += 1e6 * (Math.abs(slow.q[j]) + Math.abs(slow.u[j]));
+  for (let j = 0; j < slow.count; j++) if (slow.activeSamples[j] > k) bound += 1e6 * (Math.abs(slow.q[j]) + Math.abs(slow.u[j])) * largest(slow.gainA, slow.gainB, j);
   return bound;
 }
 
@@ -64,27 +83,22 @@ function envelopeBound(bank: OscillatorBank, k: number): number {
  * (rendered here), and the envelope bound only falls, so the search by bisection never cuts a
  * tail that would cross the threshold; the exact cut is then found in the rendered samples.
  */
-export function decayedLengthSamples(banks: ReadonlyArray<OscillatorBank>, sampleRateHz: number, thresholdDb: number): number {
-  const maxSamples = banks[0].sampleCount;
-  let needed = 0;
-  for (const bank of banks) {
-    const early = new Float64Array(Math.min(maxSamples, Math.round(EARLY_PEAK_S * sampleRateHz)));
-    renderBank(bankSegment(bank, 0, early.length), early);
-    let peak = 0;
-    for (const value of early) peak = Math.max(peak, Math.abs(value));
-    if (peak === 0) continue;
-    const level = peak * gainFromDecibels(thresholdDb);
-    if (envelopeBound(bank, maxSamples) >= level) return maxSamples;
-    let low = 0;
-    let high = maxSamples;
-    while (high - low > 1) {
-      const middle = Math.floor((low + high) / 2);
-      if (envelopeBound(bank, middle) < level) high = middle;
-      else low = middle;
-    }
-    needed = Math.max(needed, high);
+export function decayedLengthSamples(bank: OscillatorBank, sampleRateHz: number, thresholdDb: number): number {
+  const maxSamples = bank.sampleCount;
+  const earlyCount = Math.min(maxSamples, Math.round(EARLY_PEAK_S * sampleRateHz));
+  let peak = 0;
+  for (const channel of renderChannels(bankSegment(bank, 0, earlyCount), earlyCount)) for (const value of channel) peak = Math.max(peak, Math.abs(value));
+  if (peak === 0) return earlyCount;
+  const level = peak * gainFromDecibels(thresholdDb);
+  if (envelopeBound(bank, maxSamples) >= level) return maxSamples;
+  let low = 0;
+  let high = maxSamples;
+  while (high - low > 1) {
+    const middle = Math.floor((low + high) / 2);
+    if (envelopeBound(bank, middle) < level) high = middle;
+    else low = middle;
   }
-  return Math.max(needed, Math.min(maxSamples, Math.round(EARLY_PEAK_S * sampleRateHz)));
+  return Math.max(high, earlyCount);
 }
 
 /** Mode-samples of work in samples [start, end) of a bank. */
@@ -96,7 +110,7 @@ function segmentWork(bank: OscillatorBank, start: number, end: number): number {
   return work;
 }
 
-/** The segments of one channel of `totalSamples` samples, in time order. */
+/** The segments of a render of `totalSamples` samples (every channel at once), in time order. */
 export function planSegments(bank: OscillatorBank, totalSamples: number): RenderSegment[] {
   const length = Math.max(MIN_SEGMENT_SAMPLES, Math.ceil(totalSamples / SEGMENTS_PER_CHANNEL));
   const segments: RenderSegment[] = [];

@@ -89,7 +89,13 @@ export const createRenderBody = z.discriminatedUnion(
   'kind',
   [
     z.object({ kind: z.literal('single'), name: renderName, source: renderSource, output: renderOutput }),
-    z.object({ kind: z.literal('noteSet'), name: renderName, source: renderSource, output: renderOutput, noteSet: noteSetSpec }),
+    z.object({ kind: z.literal('noteSet'), name: renderName, source: renderSource, output: renderOutput, noteSet: noteSetSpec }).superRefine((body, context) => {
+      const { length } = body.output;
+      const seconds = length.kind === 'fixed' ? length.durationS : length.maxDurationS;
+      if (seconds > LIMITS.noteSetMaxDurationS) {
+        context.addIssue({ code: 'custom', message: `must be <= ${LIMITS.noteSetMaxDurationS} for each note of a set`, path: ['output', 'length', length.kind === 'fixed' ? 'durationS' : 'maxDurationS'] });
+      }
+    }),
   ],
   'must be single or noteSet',
 );

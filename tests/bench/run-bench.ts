@@ -5,8 +5,10 @@
 import { collabBench } from './collab-bench';
 import { editorFpsBench } from './editor-fps-bench';
 import { engineBench } from './engine-bench';
+import { renderBench } from './render-bench';
 
 const engine = await engineBench();
 const collaboration = await collabBench();
+const renders = await renderBench();
 const editor = await editorFpsBench();
-process.stdout.write(`${JSON.stringify({ ...engine, collaboration, editor }, null, 2)}\n`);
+process.stdout.write(`${JSON.stringify({ ...engine, collaboration, renders, editor }, null, 2)}\n`);

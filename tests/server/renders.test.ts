@@ -251,6 +251,7 @@ describe('render jobs', () => {
       [{ ...body(), output: { ...baseOutput, length: { kind: 'untilDecayed', thresholdDb: -200, fadeMs: 10, maxDurationS: 10 } } }, 'output.length.thresholdDb'],
       [{ ...body(), output: { ...baseOutput, channels: { kind: 'stereo', secondPickupPositionM: 2 } } }, 'output.channels.secondPickupPositionM'],
       [{ ...body(), kind: 'noteSet', noteSet: { fromMidi: 60, toMidi: 48, stepSemitones: 3, strengths: 3, retuneBy: 'tension' } }, 'noteSet.toMidi'],
+      [{ ...body(), kind: 'noteSet', output: { ...baseOutput, length: { kind: 'fixed', durationS: 30 } }, noteSet: { fromMidi: 48, toMidi: 60, stepSemitones: 3, strengths: 3, retuneBy: 'tension' } }, 'output.length.durationS'],
     ];
     for (const [request, field] of cases) {
       const refused = await as(server.app, studio.members.producer.token).post(`/api/studios/${studio.studioId}/renders`).send(request as object);

@@ -3,6 +3,7 @@ import { bankSegment } from '../../../shared/engine/bank-segment';
 import { buildOscillatorBank } from '../../../shared/engine/oscillator-bank';
 import { computeModeTable } from '../../../shared/engine/mode-table';
 import { renderBank } from '../../../shared/engine/render-bank';
+import { renderBankStereo } from '../../../shared/engine/render-bank-stereo';
 import { validatePatch } from '../../../shared/patch/validate-patch';
 import { testPatch } from '../../support/patches';
 
@@ -65,5 +66,35 @@ describe('rendering in time segments', () => {
     const out = new Float64Array(512);
     renderBank(late, out);
     expect(out.every((value) => value === 0)).toBe(true);
+  });
+});
+
+describe('stereo banks: one recursion read by two pickups', () => {
+  it('give each channel the same samples as a mono render at that pickup, in segments too', () => {
+    const overrides = { string: { lengthM: 0.65, tensionN: 70, linearDensityKgPerM: 6e-4, inharmonicityB: 2e-4 }, render: { sampleRateHz: 48000, durationS: 0.5, maxModes: 120 } };
+    const samples = 24_000;
+    const checked = validatePatch(testPatch(overrides));
+    if (!checked.ok) throw new Error(checked.issues[0].message);
+    const patch = checked.value;
+    const table = computeModeTable(patch);
+    // The second pickup sits on a node of mode 5 (x = L/5): that mode is silent there, not in A.
+    const second = patch.string.lengthM / 5;
+    const mono = (positionM: number) => {
+      const out = new Float64Array(samples);
+      renderBank(buildOscillatorBank({ ...patch, pickup: { ...patch.pickup, positionM } }, table, samples), out);
+      return out;
+    };
+    const stereo = buildOscillatorBank(patch, table, samples, second);
+    const a = new Float64Array(samples);
+    const b = new Float64Array(samples);
+    for (const [start, end] of [[0, 5_000], [5_000, 24_000]]) {
+      const segA = new Float64Array(end - start);
+      const segB = new Float64Array(end - start);
+      renderBankStereo(bankSegment(stereo, start, end - start), segA, segB);
+      a.set(segA, start);
+      b.set(segB, start);
+    }
+    expect(worstDifference(a, mono(patch.pickup.positionM))).toBeLessThan(1e-9);
+    expect(worstDifference(b, mono(second))).toBeLessThan(1e-9);
   });
 });

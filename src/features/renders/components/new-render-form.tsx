@@ -46,7 +46,7 @@ const FORMAT_HINTS: Record<WavFormat, string> = {
 };
 
 const LEVEL_HINTS: Record<RenderFormValues['level'], string> = {
-  none: 'Leaves the string in physical units (metres or m/s); only a 32-bit float file can hold them.',
+  none: "Leaves the pickup's physical units (metres, m/s or newtons); only a 32-bit float file can hold them.",
   peak: 'Scales the file so its highest sample reaches the ceiling.',
   loudness: 'LUFS per ITU-R BS.1770: how loud it sounds, measured with gating; the true peak ceiling keeps inter-sample peaks under it.',
 };
@@ -97,11 +97,12 @@ function noteSetCount(values: RenderFormValues): { notes: number; files: number;
   return { ...noteSetSize(spec), strengths: spec.strengths };
 }
 
-function Group({ title, children }: { title: string; children: ReactNode }) {
+/** A titled group of fields; `wide` groups take the form's full width on large screens, with three columns. */
+function Group({ title, wide = false, children }: { title: string; wide?: boolean; children: ReactNode }) {
   return (
-    <fieldset className="rounded-md border border-slate-700/15 p-3 dark:border-slate-300/10">
+    <fieldset className={`rounded-md border border-slate-700/15 p-3 dark:border-slate-300/10 ${wide ? 'lg:col-span-2' : ''}`}>
       <legend className="px-1 text-sm font-semibold text-brass-600 dark:text-brass-400">{title}</legend>
-      <div className="grid gap-x-4 gap-y-1 sm:grid-cols-2">{children}</div>
+      <div className={`grid gap-x-4 gap-y-1 sm:grid-cols-2 ${wide ? 'lg:grid-cols-3' : ''}`}>{children}</div>
     </fieldset>
   );
 }
@@ -165,7 +166,7 @@ export function NewRenderForm({ studioId, canExport, sessions, presets }: NewRen
         {canExport ? 'Render a session or preset to a WAV file, or to a set of notes in one ZIP. The patch is kept with the render.' : `You can play and download the studio's renders; ${reason}.`}
       </p>
       <form onSubmit={submit} noValidate aria-labelledby={`${id}-title`} className="mt-3 grid gap-3 lg:grid-cols-2">
-        <Group title="What to render">
+        <Group title="What to render" wide>
           <SelectField
             label="Source"
             value={values.source}
@@ -197,7 +198,7 @@ export function NewRenderForm({ studioId, canExport, sessions, presets }: NewRen
           <TextField label="Name (optional)" value={values.name} onChange={(event) => set('name')(event.target.value)} disabled={locked} maxLength={LIMITS.maxRenderNameLength} error={error('name')} hint="Empty: named after the source." />
         </Group>
 
-        <Group title="File">
+        <Group title="File" wide>
           <SelectField label="Sample rate" value={values.sampleRateHz} onChange={(event) => set('sampleRateHz')(event.target.value)} disabled={locked} error={error('output.sampleRateHz')} hint={SAMPLE_RATE_HINTS[Number(values.sampleRateHz)]}>
             {LIMITS.sampleRatesHz.map((rate) => (
               <option key={rate} value={String(rate)}>
@@ -295,7 +296,7 @@ export function NewRenderForm({ studioId, canExport, sessions, presets }: NewRen
               <TextField label="From note (MIDI)" {...text('fromMidi')} inputMode="numeric" error={error('noteSet.fromMidi')} hint={noteHint(values.fromMidi)} />
               <TextField label="To note (MIDI)" {...text('toMidi')} inputMode="numeric" error={error('noteSet.toMidi')} hint={noteHint(values.toMidi)} />
               <TextField label="Every (semitones)" {...text('stepSemitones')} inputMode="numeric" error={error('noteSet.stepSemitones')} hint="From the lowest note up: 1 for every note, 12 for octaves." />
-              <TextField label="Strengths" {...text('strengths')} inputMode="numeric" error={error('noteSet.strengths')} hint={`Each note at 1 to ${LIMITS.noteSetMaxStrengths} strengths, from gentle to full.`} />
+              <TextField label="Strengths" {...text('strengths')} inputMode="numeric" error={error('noteSet.strengths')} hint={`Each note at 1 to ${LIMITS.noteSetMaxStrengths} strengths; a harder one is a larger, narrower pluck.`} />
               <SelectField
                 label="Retune"
                 value={values.retuneBy}

@@ -53,6 +53,7 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
         </div>
       ),
     },
+    { key: 'state', header: 'State', render: (render) => <RenderState render={render} /> },
     {
       key: 'source',
       header: 'Source',
@@ -86,9 +87,9 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
         </div>
       ),
     },
-    { key: 'peak', header: 'Peak (dBFS)', sortValue: (render) => render.peakDbfs ?? -Infinity, className: 'tabular-nums whitespace-nowrap', render: (render) => level(render.peakDbfs) },
-    { key: 'truePeak', header: 'True peak (dBTP)', sortValue: (render) => render.truePeakDbtp ?? -Infinity, className: 'tabular-nums whitespace-nowrap', render: (render) => level(render.truePeakDbtp) },
-    { key: 'loudness', header: 'Loudness (LUFS)', sortValue: (render) => render.integratedLufs ?? -Infinity, className: 'tabular-nums whitespace-nowrap', render: (render) => level(render.integratedLufs) },
+    { key: 'peak', header: 'Peak (dBFS)', sortValue: (render) => render.peakDbfs ?? -Infinity, className: 'tabular-nums', render: (render) => level(render.peakDbfs) },
+    { key: 'truePeak', header: 'True peak (dBTP)', sortValue: (render) => render.truePeakDbtp ?? -Infinity, className: 'tabular-nums', render: (render) => level(render.truePeakDbtp) },
+    { key: 'loudness', header: 'Loudness (LUFS)', sortValue: (render) => render.integratedLufs ?? -Infinity, className: 'tabular-nums', render: (render) => level(render.integratedLufs) },
     { key: 'size', header: 'Size', sortValue: (render) => render.sizeBytes ?? -1, className: 'tabular-nums whitespace-nowrap', render: (render) => (render.sizeBytes === null ? none : byteSize(render.sizeBytes)) },
     {
       key: 'made',
@@ -101,7 +102,6 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
         </div>
       ),
     },
-    { key: 'state', header: 'State', render: (render) => <RenderState render={render} /> },
     {
       key: 'actions',
       header: 'Actions',
