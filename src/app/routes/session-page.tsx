@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { patchDoc } from '../../../shared/collab/patch-doc';
 import { deletePoint, movePoint } from '../../../shared/collab/point-edits';
@@ -18,6 +18,7 @@ import { StringMotion } from '../../features/editor/components/string-motion';
 import { stepSelection, type CanvasSelection } from '../../features/editor/geometry/canvas-selection';
 import { ResultsPanel } from '../../features/editor/results/results-panel';
 import { useContainerWidth } from '../../features/editor/results/use-container-width';
+import { useSettledValue } from '../../features/editor/results/use-settled-value';
 import { usePresets } from '../../features/presets/api/get-presets';
 import { useSession } from '../../features/sessions/api/get-session';
 
@@ -54,6 +55,8 @@ export default function SessionPage() {
   const [showStrike, setShowStrike] = useState(true);
   const [activeLayer, setActiveLayer] = useState<'displacement' | 'velocity'>('displacement');
   const rangeRef = useRef<number | null>(null);
+  const settledResult = useSettledValue(snapshot?.result ?? null);
+  const comparisons = useMemo(() => (presets.data ?? []).map((preset) => ({ id: preset.id, name: preset.name, url: `/api/presets/${preset.id}/preview.wav` })), [presets.data]);
 
   useEffect(() => {
     const onKey = (event: KeyboardEvent) => {
@@ -209,7 +212,7 @@ export default function SessionPage() {
       )}
 
       <ErrorBoundary title="Audition">
-        <PreviewAudition result={snapshot.result} comparisons={(presets.data ?? []).map((preset) => ({ id: preset.id, name: preset.name, url: `/api/presets/${preset.id}/preview.wav` }))} />
+        <PreviewAudition result={snapshot.result} comparisons={comparisons} />
       </ErrorBoundary>
 
       {snapshot.result && (
@@ -222,9 +225,9 @@ export default function SessionPage() {
         <ResultsPanel result={snapshot.result} issues={snapshot.computeIssues} onHoverMode={setHoverMode} />
       </ErrorBoundary>
 
-      {patch && snapshot.result && (
+      {patch && settledResult && (
         <ErrorBoundary title="Slow motion">
-          <StringMotion result={snapshot.result} lengthM={patch.string.lengthM} dark={dark} />
+          <StringMotion result={settledResult} lengthM={patch.string.lengthM} dark={dark} />
         </ErrorBoundary>
       )}
 

@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type Konva from 'konva';
 import { Layer, Line, Stage, Text } from 'react-konva';
 import { modeAmplitudesAt, modeShapeTable, stringShapeM } from '../../../../shared/engine/modal-motion';
@@ -26,7 +26,7 @@ type SpeedId = (typeof SPEEDS)[number]['id'];
  * the decay. It draws on its own stage and updates one line per frame outside React, so it never
  * slows the editing canvas.
  */
-export function StringMotion({ result, lengthM, dark }: { result: ComputeResult; lengthM: number; dark: boolean }) {
+export const StringMotion = memo(function StringMotion({ result, lengthM, dark }: { result: ComputeResult; lengthM: number; dark: boolean }) {
   const [boxRef, widthPx] = useContainerWidth<HTMLDivElement>();
   const [running, setRunning] = useState(false);
   const [speed, setSpeed] = useState<SpeedId>('cycle');
@@ -131,4 +131,4 @@ export function StringMotion({ result, lengthM, dark }: { result: ComputeResult;
       </div>
     </section>
   );
-}
+});

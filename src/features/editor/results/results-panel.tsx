@@ -1,3 +1,4 @@
+import { memo } from 'react';
 import { Notice } from '../../../components/notice';
 import type { FieldIssue } from '../../../../shared/patch/field-issue';
 import type { ComputeResult } from '../../collab/api/session-connection';
@@ -5,6 +6,7 @@ import { resultsState } from './chart-frame';
 import { ModeChart } from './mode-chart';
 import { resultFigures } from './result-figures';
 import { Spectrum } from './spectrum';
+import { useSettledValue } from './use-settled-value';
 import { Waveform } from './waveform';
 
 export interface ResultsPanelProps {
@@ -19,10 +21,14 @@ const LISTED_ISSUES = 5;
 
 /**
  * The results of the live session: a line of headline figures (f0, modes kept, total energy, T60 of
- * mode 1), the mode chart across the top, and the spectrum and waveform of the preview side by side.
+ * mode 1), the mode chart across the top, and the spectrum and waveform of the preview side by side
+ * (those two redraw when results settle, at least once a second while they stream). Memoised: a
+ * teammate's drag changes the patch many times a second, and none of that redraws the charts.
  */
-export function ResultsPanel({ result, issues, onHoverMode }: ResultsPanelProps) {
+export const ResultsPanel = memo(function ResultsPanel({ result, issues, onHoverMode }: ResultsPanelProps) {
   const state = resultsState(result, issues);
+  // The mode chart follows every result; the spectrum and waveform redraw once results settle.
+  const settledResult = useSettledValue(result);
   return (
     <section aria-label="Results" className="flex flex-col gap-3">
       {state === 'problems' ? (
@@ -39,12 +45,12 @@ export function ResultsPanel({ result, issues, onHoverMode }: ResultsPanelProps)
       )}
       <ModeChart result={result} issues={issues} onHoverMode={onHoverMode} />
       <div className="grid gap-3 md:grid-cols-2">
-        <Spectrum result={result} issues={issues} />
-        <Waveform result={result} issues={issues} />
+        <Spectrum result={settledResult} issues={issues} />
+        <Waveform result={settledResult} issues={issues} />
       </div>
     </section>
   );
-}
+});
 
 function FiguresLine({ result }: { result: ComputeResult | null }) {
   if (!result) {
