@@ -74,8 +74,9 @@ describe('the live session editor in a real browser', () => {
     const lead = await signedInPage('lead');
     const sessionId = await openSession(designer);
     await openSession(lead);
-    await designer.getByTestId('peer').filter({ hasText: 'Wren Halloway' }).waitFor({ timeout: 10_000 });
-    await lead.getByTestId('peer').filter({ hasText: 'Tamsin Okafor' }).waitFor({ timeout: 10_000 });
+    // Who is here, in which role.
+    await designer.getByTestId('peer').filter({ hasText: 'Wren Halloway (lead' }).waitFor({ timeout: 10_000 });
+    await lead.getByTestId('peer').filter({ hasText: 'Tamsin Okafor (designer' }).waitFor({ timeout: 10_000 });
 
     // Start from a plain pluck so the dragged point has room to move.
     const figuresFirst = await lead.getByTestId('result-figures').textContent();

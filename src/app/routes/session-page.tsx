@@ -151,7 +151,7 @@ export default function SessionPage() {
         {snapshot.peers.map((peer) => (
           <span key={peer.clientId} className="inline-flex items-center gap-1" data-testid="peer">
             <span className="size-2.5 rounded-full" style={{ background: peer.colour }} aria-hidden="true" /> {peer.name}
-            {peer.dragging ? ' (dragging)' : ''}
+            {peer.role ? ` (${peer.role}${peer.dragging ? ', dragging' : ''})` : peer.dragging ? ' (dragging)' : ''}
           </span>
         ))}
       </section>

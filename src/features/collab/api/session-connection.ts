@@ -23,6 +23,8 @@ export interface Presence {
   pointerXM: number | null;
   /** The point being dragged, if any. */
   dragging: { layer: 'displacement' | 'velocity' | 'pickup'; index: number } | null;
+  /** The role the server gave this person in the studio (shared once the compute channel has joined). */
+  role?: Role | null;
 }
 
 export type ConnectionState = 'connecting' | 'connected' | 'reconnecting' | 'offline';
@@ -178,7 +180,11 @@ export class SessionConnection {
       withCredentials: true,
     });
     this.socket.on('connect', () => this.socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId: options.sessionId }));
-    this.socket.on(COMPUTE_EVENTS.joined, (message: JoinedMessage) => this.update({ role: message.role, readOnly: message.readOnly, refused: null }));
+    this.socket.on(COMPUTE_EVENTS.joined, (message: JoinedMessage) => {
+      this.update({ role: message.role, readOnly: message.readOnly, refused: null });
+      const current = this.provider.awareness.getLocalState() as Presence | null;
+      if (current) this.provider.awareness.setLocalState({ ...current, role: message.role });
+    });
     this.socket.on(COMPUTE_EVENTS.refused, (message: RefusedMessage) => this.update({ refused: message }));
     this.socket.on(COMPUTE_EVENTS.result, (message: ComputeResultMessage<ArrayBuffer, ArrayBuffer>) => {
       if (this.snapshot.result && message.sequence <= this.snapshot.result.sequence) return;
