@@ -116,6 +116,17 @@ export class RenderService {
     await this.repository.delete({ id: render.id });
   }
 
+  /** Stops the jobs and removes the files of renders whose rows are already gone (a deleted studio). */
+  async discard(renders: ReadonlyArray<Render>): Promise<void> {
+    for (const render of renders) {
+      this.cancelled.add(render.id);
+      this.pool.cancel(render.id);
+      const index = this.queue.indexOf(render.id);
+      if (index >= 0) this.queue.splice(index, 1);
+      if (render.fileName) await rm(join(this.context.config.rendersDir, render.fileName), { force: true });
+    }
+  }
+
   filePath(render: Render): string | null {
     return render.fileName ? join(this.context.config.rendersDir, render.fileName) : null;
   }

@@ -1,9 +1,11 @@
+import { In } from 'typeorm';
 import { Router } from 'express';
 import { changePasswordBody, deleteAccountBody, updateProfileBody } from '../../shared/api/schemas';
 import type { AppContext } from '../app-context';
 import { clearAuthCookie, currentUser, issueAuthCookie, requireUser } from '../auth/authenticate';
 import { hashPassword, verifyPassword } from '../auth/password-hash';
 import { Membership } from '../db/entities/membership';
+import { Render } from '../db/entities/render';
 import { Studio } from '../db/entities/studio';
 import { User } from '../db/entities/user';
 import { ApiError, conflict } from '../http/api-error';
@@ -47,7 +49,7 @@ export function meRoutes(context: AppContext): Router {
     const user = currentUser(request);
     const { password } = parseInput(deleteAccountBody, request.body);
     if (!(await verifyPassword(password, user.passwordHash))) throw new ApiError(400, 'invalid', 'password is wrong', 'password');
-    await context.dataSource.transaction(async (manager) => {
+    const goneRenders = await context.dataSource.transaction(async (manager) => {
       const leads = await manager.getRepository(Membership).findBy({ userId: user.id, role: 'lead' });
       const blocking: string[] = [];
       const soleMemberStudios: string[] = [];
@@ -60,9 +62,13 @@ export function meRoutes(context: AppContext): Router {
       if (blocking.length > 0) {
         throw conflict(`You are the last lead of ${blocking.join(', ')}: make another member lead before deleting your account`);
       }
+      const renders = soleMemberStudios.length > 0 ? await manager.getRepository(Render).findBy({ studioId: In(soleMemberStudios) }) : [];
       for (const studioId of soleMemberStudios) await manager.delete(Studio, { id: studioId });
       await manager.delete(User, { id: user.id });
+      return renders;
     });
+    // The studios' render rows went with them (cascade); their files and running jobs go now.
+    await context.renders?.discard(goneRenders);
     clearAuthCookie(context, response);
     response.status(204).end();
   });

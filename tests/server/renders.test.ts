@@ -7,7 +7,7 @@ import type { CreateRenderBody, RenderOutput } from '../../shared/renders/render
 import { Render } from '../../server/db/entities/render';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { testPatch } from '../support/patches';
-import { as, rowCount, startTestServer, type TestServer } from '../support/test-server';
+import { as, registerUser, rowCount, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-server';
 
 /**
  * Render jobs through the real API, on a real SQLite file and the real worker threads. Invented
@@ -259,6 +259,21 @@ describe('render jobs', () => {
       expect(refused.body.error.field, JSON.stringify(refused.body)).toBe(field);
     }
     expect(await rowCount(server.dataSource, 'renders')).toBe(before);
+  });
+});
+
+describe('a studio that goes with its last member', () => {
+  it('takes its render files with it', async () => {
+    const solo = await registerUser(server.app, 'solo-lead@kestrel-lantern.example', 'Solo lead');
+    const studioId = (await as(server.app, solo.token).post('/api/studios').send({ name: 'Lantern annex' })).body.studio.id as string;
+    const sessionId = (await as(server.app, solo.token).post(`/api/studios/${studioId}/sessions`).send({ name: 'Annex wire' })).body.session.id as string;
+    const started = await as(server.app, solo.token).post(`/api/studios/${studioId}/renders`).send({ kind: 'single', source: { kind: 'session', sessionId }, output: baseOutput });
+    expect(started.status).toBe(202);
+    await server.context.renders!.idle();
+    const file = join(server.context.config.rendersDir, `${started.body.render.id}.wav`);
+    expect(existsSync(file)).toBe(true);
+    expect((await as(server.app, solo.token).delete('/api/me').send({ password: TEST_PASSWORD })).status).toBe(204);
+    expect(existsSync(file)).toBe(false);
   });
 });
 
