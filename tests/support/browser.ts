@@ -3,11 +3,8 @@ import { chromium, type Browser } from 'playwright-core';
 /** Debian's Chromium, installed by .ci/run with apt-get; playwright-core never downloads a browser. */
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 
-/**
- * A fresh headless browser (playwright gives it an empty profile of its own). `extraArgs` are
- * added after the default flags (the bench uses them; the tests launch with the defaults).
- */
-export async function launchBrowser({ extraArgs = [] }: { extraArgs?: string[] } = {}): Promise<Browser> {
+/** A fresh headless browser (playwright gives it an empty profile of its own). */
+export async function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: CHROMIUM_PATH,
     headless: true,
@@ -20,7 +17,6 @@ export async function launchBrowser({ extraArgs = [] }: { extraArgs?: string[] }
       '--disable-background-networking',
       '--disable-component-update',
       '--disable-sync',
-      ...extraArgs,
     ],
   });
 }
