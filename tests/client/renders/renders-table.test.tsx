@@ -22,7 +22,7 @@ describe('renders page: the table', () => {
     const cells = within(row).getAllByRole('cell');
     const headers = within(screen.getByRole('table')).getAllByRole('columnheader').map((header) => header.textContent);
     const cell = (header: string) => cells[headers.indexOf(header)];
-    expect(cell('Source').textContent).toBe('Saltglass harbour bellsession');
+    expect(cell('Source and settings').textContent).toBe('Saltglass harbour bell (session)48 kHz · 24-bit · stereo · loudness −16 LUFS / −1 dBTP');
     expect(within(row).getByText('48 kHz · 24-bit · stereo · loudness −16 LUFS / −1 dBTP')).toBeTruthy();
     expect(within(cell('Length (s)')).getByText('4.21')).toBeTruthy();
     expect(cell('Peak (dBFS)').textContent).toBe('−1.4');

@@ -47,7 +47,7 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
       header: 'Render',
       sortValue: (render) => render.name.toLowerCase(),
       render: (render) => (
-        <div className="min-w-36">
+        <div className="min-w-32">
           <p className="font-semibold text-slate-900 dark:text-slate-100">{render.name}</p>
           {render.kind === 'noteSet' && <p className={muted}>note set{render.fileCount !== null ? ` · ${render.fileCount} files` : ''}</p>}
         </div>
@@ -56,22 +56,15 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
     { key: 'state', header: 'State', render: (render) => <RenderState render={render} /> },
     {
       key: 'source',
-      header: 'Source',
+      header: 'Source and settings',
       sortValue: (render) => render.source.name.toLowerCase(),
       render: (render) => (
-        <div className="min-w-32">
-          <p>{render.source.name}</p>
-          <p className={muted}>{render.source.kind}</p>
-        </div>
-      ),
-    },
-    {
-      key: 'settings',
-      header: 'Settings',
-      render: (render) => (
-        <div className="min-w-48 text-xs">
-          <p>{outputSummary(render.output)}</p>
-          {render.noteSet && <p className="text-slate-600 dark:text-slate-300">{noteSetSummary(render.noteSet)}</p>}
+        <div className="min-w-48 max-w-72">
+          <p>
+            {render.source.name} <span className={muted}>({render.source.kind})</span>
+          </p>
+          <p className="text-xs">{outputSummary(render.output)}</p>
+          {render.noteSet && <p className="text-xs text-slate-600 dark:text-slate-300">{noteSetSummary(render.noteSet)}</p>}
         </div>
       ),
     },
@@ -83,7 +76,7 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
       render: (render) => (
         <div>
           <p>{render.durationS === null ? none : render.durationS.toFixed(2)}</p>
-          <p className={`${muted} whitespace-nowrap`}>{lengthRuleSummary(render.output.length)}</p>
+          <p className={`${muted} max-w-32`}>{lengthRuleSummary(render.output.length)}</p>
         </div>
       ),
     },
@@ -96,7 +89,7 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
       header: 'Made',
       sortValue: (render) => Date.parse(render.createdAt),
       render: (render) => (
-        <div className="min-w-32">
+        <div className="min-w-28">
           <time dateTime={render.createdAt}>{dateTime.format(new Date(render.createdAt))}</time>
           <p className={muted}>by {render.createdBy?.displayName ?? 'a former member'}</p>
         </div>
@@ -111,7 +104,7 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
         const busy = busyId === render.id;
         return (
           // relative: the screen-reader words are positioned absolutely and must stay inside the scrolling table.
-          <div className="relative flex min-w-64 flex-wrap items-center justify-end gap-2">
+          <div className="relative flex min-w-44 flex-wrap items-center justify-end gap-2">
             {done && render.kind === 'single' && <AuditionButton url={renderPlayUrl(render.id)} label={render.name} />}
             {done && (
               <a href={renderFileUrl(render.id)} download className={linkButton}>
