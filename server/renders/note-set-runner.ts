@@ -65,7 +65,9 @@ export async function renderNoteSet(pool: RenderTaskPool, render: Render, metada
   const files = plan.map((file, index) => ({ name: file.fileName, bytes: results[index].bytes }));
   files.push({ name: NOTE_SET_MANIFEST_FILE_NAME, bytes: new TextEncoder().encode(`${JSON.stringify(manifest, null, 2)}\n`) });
   files.push({ name: 'patch.json', bytes: new TextEncoder().encode(`${JSON.stringify(render.patch, null, 2)}\n`) });
-  const zipped = await pool.run(render.id, { type: 'zip', files });
+  // Moved, not copied, to the worker: copying 30 MB of files would hold up the event loop.
+  const transfer = files.filter((file) => file.bytes.byteOffset === 0 && file.bytes.byteLength === file.bytes.buffer.byteLength).map((file) => file.bytes.buffer as ArrayBuffer);
+  const zipped = await pool.run(render.id, { type: 'zip', files }, transfer);
   onProgress(1);
   const loudest = results.reduce((best, result) => (result.integratedLufs > best.integratedLufs ? result : best), results[0]);
   return {

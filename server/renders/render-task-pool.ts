@@ -1,6 +1,7 @@
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
+import { MODE_KERNEL_WASM } from '../engine-wasm/wasm-bank-renderer';
 import type { FinishResult, PlanResult, RenderTask, RenderTaskResult, TaskReply, TaskRequest } from './render-tasks';
 
 const bootPath = fileURLToPath(new URL('../engine-pool/worker-boot.cjs', import.meta.url));
@@ -74,7 +75,7 @@ export class RenderTaskPool {
   }
 
   private spawn(): Slot {
-    const slot: Slot = { worker: new Worker(bootPath, { workerData: { entry: entryPath } }), running: null };
+    const slot: Slot = { worker: new Worker(bootPath, { workerData: { entry: entryPath, wasmPath: MODE_KERNEL_WASM } }), running: null };
     slot.worker.unref();
     slot.worker.on('message', (reply: TaskReply) => {
       const pending = slot.running;

@@ -1,5 +1,5 @@
 import { setPriority } from 'node:os';
-import { parentPort } from 'node:worker_threads';
+import { parentPort, workerData } from 'node:worker_threads';
 import JSZip from 'jszip';
 import { bankSegment } from '../../shared/engine/bank-segment';
 import { computeModeTable } from '../../shared/engine/mode-table';
@@ -7,7 +7,10 @@ import type { OscillatorBank } from '../../shared/engine/oscillator-bank';
 import { renderSampleCount } from '../../shared/engine/render-patch';
 import { seededRandom } from '../../shared/random/seeded-random';
 import { finishRender } from '../../shared/renders/finish-render';
-import { channelPickupsM, decayedLengthSamples, patchForOutput, planSegments, renderBankFor, renderChannels } from '../../shared/renders/render-plan';
+import { channelPickupsM, decayedLengthSamples, patchForOutput, planSegments, renderBankFor } from '../../shared/renders/render-plan';
+import { createWasmBankRenderer, type BankRenderer } from '../engine-wasm/wasm-bank-renderer';
+import { renderBank } from '../../shared/engine/render-bank';
+import { renderBankStereo } from '../../shared/engine/render-bank-stereo';
 import { encodeWav } from '../audio/encode-wav';
 import type { FinishResult, PlanResult, RenderTask, RenderTaskResult, TaskReply, TaskRequest } from './render-tasks';
 
@@ -18,6 +21,15 @@ try {
 } catch {
   // Not permitted or not supported here: run at normal priority.
 }
+
+/** The WebAssembly SIMD kernel when it loads here; the TypeScript kernels otherwise (same samples, slower). */
+const renderSegmentBank: BankRenderer = (() => {
+  try {
+    return createWasmBankRenderer((workerData as { wasmPath?: string } | null)?.wasmPath);
+  } catch {
+    return (bank, outs) => (outs.length === 2 ? renderBankStereo(bank, outs[0], outs[1]) : renderBank(bank, outs[0]));
+  }
+})();
 
 /** The last renders' oscillators, so the segments of one render build them once. */
 const banks = new Map<string, OscillatorBank>();
@@ -40,7 +52,9 @@ function segment(task: Extract<RenderTask, { type: 'segment' }>): Float64Array[]
     banks.set(task.cacheKey, bank);
     while (banks.size > KEPT_BANKS) banks.delete(banks.keys().next().value as string);
   }
-  return renderChannels(bankSegment(bank, task.start, task.count), task.count);
+  const outs = task.pickupsM.map(() => new Float64Array(task.count));
+  renderSegmentBank(bankSegment(bank, task.start, task.count), outs);
+  return outs;
 }
 
 function finish(task: Extract<RenderTask, { type: 'finish' }>): FinishResult {

@@ -1,0 +1,69 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { bankSegment } from '../../shared/engine/bank-segment';
+import { computeModeTable } from '../../shared/engine/mode-table';
+import { buildOscillatorBank } from '../../shared/engine/oscillator-bank';
+import { renderBank } from '../../shared/engine/render-bank';
+import { renderBankStereo } from '../../shared/engine/render-bank-stereo';
+import { validatePatch } from '../../shared/patch/validate-patch';
+import { compileKernel } from '../../server/engine-wasm/build-kernel';
+import { createWasmBankRenderer, MODE_KERNEL_WASM } from '../../server/engine-wasm/wasm-bank-renderer';
+import { testPatch } from '../support/patches';
+
+function patchOf(overrides: object) {
+  const checked = validatePatch(testPatch(overrides));
+  if (!checked.ok) throw new Error(checked.issues[0].message);
+  return checked.value;
+}
+
+function relativeDifference(a: Float64Array, b: Float64Array): number {
+  let peak = 0;
+  let worst = 0;
+  for (let i = 0; i < a.length; i++) {
+    peak = Math.max(peak, Math.abs(a[i]));
+    worst = Math.max(worst, Math.abs(a[i] - b[i]));
+  }
+  return worst / peak;
+}
+
+describe('the WebAssembly SIMD mode kernel', () => {
+  it('is built from its text: the committed binary is what wabt makes of mode-kernel.wat (npm run build:kernel)', async () => {
+    expect(Buffer.from(readFileSync(MODE_KERNEL_WASM)).equals(Buffer.from(await compileKernel()))).toBe(true);
+  });
+
+  it('renders mono and stereo banks, ringing and heavily damped modes, in segments, to the TypeScript kernels’ samples', () => {
+    const render = createWasmBankRenderer();
+    const samples = 30_000;
+    // A stiff string with strong losses: ringing modes (fast bank) and overdamped low ones (slow bank).
+    for (const overrides of [
+      { string: { lengthM: 0.65, tensionN: 70, linearDensityKgPerM: 6e-4, inharmonicityB: 2e-4 }, render: { sampleRateHz: 48000, durationS: 1, maxModes: 150 } },
+      { string: { lengthM: 0.65, tensionN: 4, linearDensityKgPerM: 6e-3, inharmonicityB: 0 }, damping: { b1PerS: 200, b2M2PerS: 0.02 }, render: { sampleRateHz: 44100, durationS: 1, maxModes: 64 } },
+    ]) {
+      const patch = patchOf(overrides);
+      const table = computeModeTable(patch);
+      const monoBank = buildOscillatorBank(patch, table, samples);
+      const stereoBank = buildOscillatorBank(patch, table, samples, patch.string.lengthM * 0.37);
+      const expectedMono = new Float64Array(samples);
+      renderBank(buildOscillatorBank(patch, table, samples), expectedMono);
+      const expectedA = new Float64Array(samples);
+      const expectedB = new Float64Array(samples);
+      renderBankStereo(buildOscillatorBank(patch, table, samples, patch.string.lengthM * 0.37), expectedA, expectedB);
+
+      const mono = new Float64Array(samples);
+      const a = new Float64Array(samples);
+      const b = new Float64Array(samples);
+      for (const [start, end] of [[0, 777], [777, 20_000], [20_000, samples]]) {
+        const one = [new Float64Array(end - start)];
+        render(bankSegment(monoBank, start, end - start), one);
+        mono.set(one[0], start);
+        const two = [new Float64Array(end - start), new Float64Array(end - start)];
+        render(bankSegment(stereoBank, start, end - start), two);
+        a.set(two[0], start);
+        b.set(two[1], start);
+      }
+      expect(relativeDifference(mono, expectedMono)).toBeLessThan(1e-9);
+      expect(relativeDifference(a, expectedA)).toBeLessThan(1e-9);
+      expect(relativeDifference(b, expectedB)).toBeLessThan(1e-9);
+    }
+  });
+});
