@@ -2,7 +2,7 @@ import { samplePeak } from '../../shared/audio/peak';
 import { computeModeTable } from '../../shared/engine/mode-table';
 import { previewPatch } from '../../shared/engine/preview-patch';
 import { renderBank } from '../../shared/engine/render-bank';
-import { buildOscillatorBank } from '../../shared/engine/oscillator-bank';
+import { buildOscillatorBank, type OscillatorBank } from '../../shared/engine/oscillator-bank';
 import { renderSampleCount } from '../../shared/engine/render-patch';
 import type { Patch } from '../../shared/patch/patch-schema';
 
@@ -22,15 +22,18 @@ export interface ComputeOutput {
   computeMs: number;
 }
 
-/** The mode table of the patch itself (as the CLI prints it) and a bounded preview, peak-normalised to ±1. */
-export function computePatch(patch: Patch, previewDurationS: number): ComputeOutput {
+/**
+ * The mode table of the patch itself (as the CLI prints it) and a bounded preview, peak-normalised
+ * to ±1. `render` adds a bank into a buffer: the TypeScript kernel, or the worker's WebAssembly one.
+ */
+export function computePatch(patch: Patch, previewDurationS: number, render: (bank: OscillatorBank, out: Float64Array) => void = renderBank): ComputeOutput {
   const started = performance.now();
   const table = computeModeTable(patch);
   const preview = previewPatch(patch, previewDurationS);
   const previewTable = preview.render.sampleRateHz === patch.render.sampleRateHz ? table : computeModeTable(preview);
   const bank = buildOscillatorBank(preview, previewTable, renderSampleCount(preview));
   const samples = new Float64Array(bank.sampleCount);
-  renderBank(bank, samples);
+  render(bank, samples);
   const peak = samplePeak(samples);
   const normalized = new Float32Array(samples.length);
   const gain = peak > 0 ? 1 / peak : 0;
