@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { patchDoc } from '../../../shared/collab/patch-doc';
 import { deletePoint, movePoint } from '../../../shared/collab/point-edits';
@@ -21,6 +21,19 @@ import { useContainerWidth } from '../../features/editor/results/use-container-w
 import { useSettledValue } from '../../features/editor/results/use-settled-value';
 import { usePresets } from '../../features/presets/api/get-presets';
 import { useSession } from '../../features/sessions/api/get-session';
+
+/**
+ * The page's parts, memoised: a compute result (about five a second while people drag) redraws the
+ * results only, and a teammate's drag redraws the canvas and the panels only.
+ */
+const Canvas = memo(StringCanvas);
+const Handles = memo(HandleFields);
+const Keys = memo(NoteKeyboard);
+const Pluck = memo(PluckTool);
+const StringFields = memo(StringPanel);
+const LossFields = memo(LossesPanel);
+const PickupFields = memo(PickupPanel);
+const RenderFields = memo(RenderPanel);
 
 /** Colours given to people in a session, picked by their name so everyone sees the same one. */
 const PEOPLE_COLOURS = ['#e8b64f', '#4cc7b8', '#ef8566', '#9b8cf2', '#7fc96b', '#f28cc6'];
@@ -51,6 +64,7 @@ export default function SessionPage() {
   const [selected, setSelected] = useState<CanvasSelection | null>(null);
   const [tool, setTool] = useState<'edit' | 'draw'>('edit');
   const [strokeProblem, setStrokeProblem] = useState<string | null>(null);
+  const clearSelection = useCallback(() => setSelected(null), []);
   const [hoverMode, setHoverMode] = useState<number | null>(null);
   const [showStrike, setShowStrike] = useState(true);
   const [activeLayer, setActiveLayer] = useState<'displacement' | 'velocity'>('displacement');
@@ -159,7 +173,7 @@ export default function SessionPage() {
       <ErrorBoundary title="The string canvas">
         <div ref={canvasBox} data-display-range-m={displayRangeM} tabIndex={0} onKeyDown={onCanvasKey} aria-label="String canvas: drag points, click the line to add one, double-click a point to remove it; ] and [ select the next or previous handle, arrow keys move it, Delete removes it" className="rounded-lg border border-slate-700/15 focus-visible:outline-2 focus-visible:outline-teal-400 dark:border-slate-300/10">
           {patch ? (
-            <StringCanvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={hoverMode} displayRangeM={displayRangeM} showStrike={showStrike} activeLayer={activeLayer} selected={selected} onSelect={setSelected} tool={tool} onStrokeProblem={setStrokeProblem} dark={dark} />
+            <Canvas connection={connection} patch={patch} readOnly={readOnly} peers={snapshot.peers} widthPx={widthPx} heightPx={300} highlightMode={hoverMode} displayRangeM={displayRangeM} showStrike={showStrike} activeLayer={activeLayer} selected={selected} onSelect={setSelected} tool={tool} onStrokeProblem={setStrokeProblem} dark={dark} />
           ) : (
             <LoadingBlock label="Syncing the string…" rows={3} />
           )}
@@ -204,7 +218,7 @@ export default function SessionPage() {
         </section>
       )}
       {strokeProblem && <Notice tone="caution">{strokeProblem}</Notice>}
-      {patch && <HandleFields connection={connection} patch={patch} selection={selected} readOnly={readOnly} onDeleted={() => setSelected(null)} />}
+      {patch && <Handles connection={connection} patch={patch} selection={selected} readOnly={readOnly} onDeleted={clearSelection} />}
       {snapshot.patchIssues.length > 0 && (
         <Notice tone="error" title="The string has a problem">
           {snapshot.patchIssues.map((issue) => issue.message).join('; ')}
@@ -231,16 +245,16 @@ export default function SessionPage() {
         </ErrorBoundary>
       )}
 
-      {patch && <NoteKeyboard patch={patch} />}
+      {patch && <Keys patch={patch} />}
 
-      {patch && <PluckTool connection={connection} patch={patch} readOnly={readOnly} />}
+      {patch && <Pluck connection={connection} patch={patch} readOnly={readOnly} />}
 
       {patch && (
         <div className="grid gap-3 lg:grid-cols-2">
-          <StringPanel connection={connection} patch={patch} readOnly={readOnly} />
-          <LossesPanel connection={connection} patch={patch} readOnly={readOnly} />
-          <PickupPanel connection={connection} patch={patch} readOnly={readOnly} />
-          <RenderPanel connection={connection} patch={patch} readOnly={readOnly} />
+          <StringFields connection={connection} patch={patch} readOnly={readOnly} />
+          <LossFields connection={connection} patch={patch} readOnly={readOnly} />
+          <PickupFields connection={connection} patch={patch} readOnly={readOnly} />
+          <RenderFields connection={connection} patch={patch} readOnly={readOnly} />
         </div>
       )}
     </div>
