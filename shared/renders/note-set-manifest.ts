@@ -24,6 +24,9 @@ export interface NoteSetManifestFile {
   strengthCount: number;
   velocityLow: number;
   velocityHigh: number;
+  /** How the strength was played: the excitation's scale and the contact width's factor (see NOTE_SET_STRENGTHS). */
+  displacementScale: number;
+  widthFactor: number;
   /**
    * The first partial of the retuned string, stiffness included, f1 = f0·√(1 + B): the root's
    * frequency 440·2^((n − 69)/12) (MIDI Tuning Standard), where `retunePatch` puts it.
@@ -115,6 +118,8 @@ export function buildNoteSetManifest(set: {
       strengthCount: planned.strengthCount,
       velocityLow: planned.velocityLow,
       velocityHigh: planned.velocityHigh,
+      displacementScale: planned.displacementScale,
+      widthFactor: planned.widthFactor,
       fundamentalHz: rendered.fundamentalHz,
       durationS: rendered.durationS,
       peakDbfs: finiteOrNull(rendered.peakDbfs),

@@ -48,6 +48,9 @@ describe('buildNoteSetManifest', () => {
       strengthCount: 3,
       velocityLow: 43,
       velocityHigh: 84,
+      // Strength 2 of 3: 0.3^(1/2) of the excitation, the contact at 1 − 0.4·½ of its width (NOTE_SET_STRENGTHS).
+      displacementScale: Math.sqrt(0.3),
+      widthFactor: 0.8,
       fundamentalHz: 440 * 2 ** ((39 - 69) / 12),
       durationS: 4.04,
       peakDbfs: -5,
