@@ -18,6 +18,7 @@ import { modeWavenumber } from '../../shared/engine/mode-frequencies';
 import { defaultPatch } from '../../shared/patch/default-patch';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { SessionConnection } from '../../src/features/collab/api/session-connection';
+import { api, logIn } from './bench-api';
 
 // Each y-websocket provider registers a process exit listener; sixteen of them are expected here.
 process.setMaxListeners(64);
@@ -59,24 +60,13 @@ function processStats(pid: number): { cpuS: number; rssMB: number } {
   return { cpuS: ticks / 100, rssMB: (rssPages * 4096) / 2 ** 20 };
 }
 
-async function api(baseUrl: string, path: string, token: string, method = 'GET', body?: unknown) {
-  const response = await fetch(`${baseUrl}${path}`, {
-    method,
-    headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json' },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  if (!response.ok) throw new Error(`${method} ${path}: ${response.status} ${await response.text()}`);
-  return response.json();
-}
-
 /** The collaboration figures, against the server in its own process. */
 export async function collabBench() {
   const { child, port } = await startServer();
   const baseUrl = `http://127.0.0.1:${port}`;
   try {
     const lead = DEMO_ACCOUNTS.find((account) => account.role === 'lead')!;
-    const login = await (await fetch(`${baseUrl}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: lead.email, password: DEMO_PASSWORD }) })).json();
-    const token = login.token as string;
+    const token = await logIn(baseUrl, lead.email, DEMO_PASSWORD);
     const studioId = (await api(baseUrl, '/api/me', token)).studios[0].id as string;
 
     // The measured patch: 256 modes below 24 kHz (f0 = 80 Hz) and a 2 s preview at 48 kHz.

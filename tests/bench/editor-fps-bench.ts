@@ -15,6 +15,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { CANVAS_MARGIN_PX } from '../../src/features/editor/components/string-canvas';
 import { startE2eHarness } from '../support/e2e-harness';
 import { testPatch } from '../support/patches';
+import { api, logIn } from './bench-api';
 
 const DRAG_S = Number(process.env.EDITOR_BENCH_SECONDS ?? 5);
 const STEP_MS = 16;
@@ -43,22 +44,6 @@ interface Recorded {
   frames: number[];
   longTasks: Array<{ startTime: number; duration: number }>;
   results: number;
-}
-
-async function api(baseUrl: string, path: string, token: string, method = 'GET', body?: unknown) {
-  const response = await fetch(`${baseUrl}${path}`, {
-    method,
-    headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json' },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  if (!response.ok) throw new Error(`${method} ${path}: ${response.status} ${await response.text()}`);
-  return response.json();
-}
-
-async function logIn(baseUrl: string, email: string, password: string): Promise<string> {
-  const response = await fetch(`${baseUrl}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email, password }) });
-  if (!response.ok) throw new Error(`login ${email}: ${response.status} ${await response.text()}`);
-  return ((await response.json()) as { token: string }).token;
 }
 
 /** The lead invites the third person as a designer; the link comes from the local mailbox; the invitee accepts. */

@@ -5,26 +5,10 @@ import { computeModeTable } from '../../shared/engine/mode-table';
 import { buildOscillatorBank } from '../../shared/engine/oscillator-bank';
 import { renderBank } from '../../shared/engine/render-bank';
 import { renderBankStereo } from '../../shared/engine/render-bank-stereo';
-import { validatePatch } from '../../shared/patch/validate-patch';
 import { compileKernel } from '../../server/engine-wasm/build-kernel';
 import { createWasmBankRenderer, MODE_KERNEL_WASM } from '../../server/engine-wasm/wasm-bank-renderer';
-import { testPatch } from '../support/patches';
-
-function patchOf(overrides: object) {
-  const checked = validatePatch(testPatch(overrides));
-  if (!checked.ok) throw new Error(checked.issues[0].message);
-  return checked.value;
-}
-
-function relativeDifference(a: Float64Array, b: Float64Array): number {
-  let peak = 0;
-  let worst = 0;
-  for (let i = 0; i < a.length; i++) {
-    peak = Math.max(peak, Math.abs(a[i]));
-    worst = Math.max(worst, Math.abs(a[i] - b[i]));
-  }
-  return worst / peak;
-}
+import { testPatch, validPatch } from '../support/patches';
+import { peakRelativeDifference } from '../support/signal-difference';
 
 describe('the WebAssembly SIMD mode kernel', () => {
   it('is built from its text: the committed binary is what wabt makes of mode-kernel.wat (npm run build:kernel)', async () => {
@@ -39,7 +23,7 @@ describe('the WebAssembly SIMD mode kernel', () => {
       { string: { lengthM: 0.65, tensionN: 70, linearDensityKgPerM: 6e-4, inharmonicityB: 2e-4 }, render: { sampleRateHz: 48000, durationS: 1, maxModes: 150 } },
       { string: { lengthM: 0.65, tensionN: 4, linearDensityKgPerM: 6e-3, inharmonicityB: 0 }, damping: { b1PerS: 200, b2M2PerS: 0.02 }, render: { sampleRateHz: 44100, durationS: 1, maxModes: 64 } },
     ]) {
-      const patch = patchOf(overrides);
+      const patch = validPatch(testPatch(overrides));
       const table = computeModeTable(patch);
       const monoBank = buildOscillatorBank(patch, table, samples);
       const stereoBank = buildOscillatorBank(patch, table, samples, patch.string.lengthM * 0.37);
@@ -61,9 +45,9 @@ describe('the WebAssembly SIMD mode kernel', () => {
         a.set(two[0], start);
         b.set(two[1], start);
       }
-      expect(relativeDifference(mono, expectedMono)).toBeLessThan(1e-9);
-      expect(relativeDifference(a, expectedA)).toBeLessThan(1e-9);
-      expect(relativeDifference(b, expectedB)).toBeLessThan(1e-9);
+      expect(peakRelativeDifference(mono, expectedMono)).toBeLessThan(1e-9);
+      expect(peakRelativeDifference(a, expectedA)).toBeLessThan(1e-9);
+      expect(peakRelativeDifference(b, expectedB)).toBeLessThan(1e-9);
     }
   });
 });

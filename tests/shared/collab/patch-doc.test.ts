@@ -2,14 +2,9 @@ import * as Y from 'yjs';
 import { describe, expect, it } from 'vitest';
 import { docPoint, patchDoc, patchFromDoc, validatedPatchFromDoc, writePatchToDoc } from '../../../shared/collab/patch-doc';
 import { insertPoint, movePoint, replaceLayerPoints, setLengthM } from '../../../shared/collab/point-edits';
-import { validatePatch } from '../../../shared/patch/validate-patch';
-import { testPatch } from '../../support/patches';
+import { testPatch, validPatch } from '../../support/patches';
 
-function validTestPatch(overrides = {}) {
-  const result = validatePatch(testPatch(overrides));
-  if (!result.ok) throw new Error(result.issues[0].message);
-  return result.value;
-}
+const validTestPatch = (overrides = {}) => validPatch(testPatch(overrides));
 
 describe('document ↔ patch', () => {
   it('round-trips a patch, velocity layer and designer extras included', () => {

@@ -4,13 +4,12 @@ import { buildOscillatorBank } from '../../../shared/engine/oscillator-bank';
 import { computeModeTable } from '../../../shared/engine/mode-table';
 import { renderBank } from '../../../shared/engine/render-bank';
 import { renderBankStereo } from '../../../shared/engine/render-bank-stereo';
-import { validatePatch } from '../../../shared/patch/validate-patch';
-import { testPatch } from '../../support/patches';
+import { testPatch, validPatch } from '../../support/patches';
+import { peakRelativeDifference } from '../../support/signal-difference';
 
 function bankOf(overrides: object, sampleCount: number) {
-  const checked = validatePatch(testPatch(overrides));
-  if (!checked.ok) throw new Error(checked.issues[0].message);
-  return buildOscillatorBank(checked.value, computeModeTable(checked.value), sampleCount);
+  const patch = validPatch(testPatch(overrides));
+  return buildOscillatorBank(patch, computeModeTable(patch), sampleCount);
 }
 
 function renderWhole(overrides: object, sampleCount: number): Float64Array {
@@ -31,23 +30,13 @@ function renderInSegments(overrides: object, sampleCount: number, cuts: number[]
   return out;
 }
 
-function worstDifference(a: Float64Array, b: Float64Array): number {
-  let peak = 0;
-  let worst = 0;
-  for (let i = 0; i < a.length; i++) {
-    peak = Math.max(peak, Math.abs(a[i]));
-    worst = Math.max(worst, Math.abs(a[i] - b[i]));
-  }
-  return worst / peak;
-}
-
 describe('rendering in time segments', () => {
   it('joins into the same samples as one render (ringing modes, stiffness, both loss terms)', () => {
     const overrides = { string: { lengthM: 0.65, tensionN: 70, linearDensityKgPerM: 6e-4, inharmonicityB: 3e-4 }, render: { sampleRateHz: 48000, durationS: 1.5, maxModes: 200 } };
     const samples = 72_000;
     const whole = renderWhole(overrides, samples);
     // Uneven cuts, one inside the first render block, so no block boundary hides an error.
-    expect(worstDifference(renderInSegments(overrides, samples, [100, 30_001, 65_536]), whole)).toBeLessThan(1e-9);
+    expect(peakRelativeDifference(renderInSegments(overrides, samples, [100, 30_001, 65_536]), whole)).toBeLessThan(1e-9);
   });
 
   it('also for heavily damped (slow-bank) modes, advanced by powers of their transition matrix', () => {
@@ -55,7 +44,7 @@ describe('rendering in time segments', () => {
     const overrides = { string: { lengthM: 0.65, tensionN: 4, linearDensityKgPerM: 6e-3, inharmonicityB: 0 }, damping: { b1PerS: 200, b2M2PerS: 0.02 }, render: { sampleRateHz: 44100, durationS: 1, maxModes: 64 } };
     const bank = bankOf(overrides, 44_100);
     expect(bank.slow.count).toBeGreaterThan(0);
-    expect(worstDifference(renderInSegments(overrides, 44_100, [7, 10_000, 22_050]), renderWhole(overrides, 44_100))).toBeLessThan(1e-9);
+    expect(peakRelativeDifference(renderInSegments(overrides, 44_100, [7, 10_000, 22_050]), renderWhole(overrides, 44_100))).toBeLessThan(1e-9);
   });
 
   it('leaves the bank it was given untouched, and a segment past every oscillator is silent', () => {
@@ -73,9 +62,7 @@ describe('stereo banks: one recursion read by two pickups', () => {
   it('give each channel the same samples as a mono render at that pickup, in segments too', () => {
     const overrides = { string: { lengthM: 0.65, tensionN: 70, linearDensityKgPerM: 6e-4, inharmonicityB: 2e-4 }, render: { sampleRateHz: 48000, durationS: 0.5, maxModes: 120 } };
     const samples = 24_000;
-    const checked = validatePatch(testPatch(overrides));
-    if (!checked.ok) throw new Error(checked.issues[0].message);
-    const patch = checked.value;
+    const patch = validPatch(testPatch(overrides));
     const table = computeModeTable(patch);
     // The second pickup sits on a node of mode 5 (x = L/5): that mode is silent there, not in A.
     const second = patch.string.lengthM / 5;
@@ -94,7 +81,7 @@ describe('stereo banks: one recursion read by two pickups', () => {
       a.set(segA, start);
       b.set(segB, start);
     }
-    expect(worstDifference(a, mono(patch.pickup.positionM))).toBeLessThan(1e-9);
-    expect(worstDifference(b, mono(second))).toBeLessThan(1e-9);
+    expect(peakRelativeDifference(a, mono(patch.pickup.positionM))).toBeLessThan(1e-9);
+    expect(peakRelativeDifference(b, mono(second))).toBeLessThan(1e-9);
   });
 });

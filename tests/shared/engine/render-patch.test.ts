@@ -5,16 +5,9 @@ import { computeModeTable, type ModeTable } from '../../../shared/engine/mode-ta
 import { renderBank } from '../../../shared/engine/render-bank';
 import { prepareRender, renderPatch, renderSampleCount } from '../../../shared/engine/render-patch';
 import { splitBank } from '../../../shared/engine/split-bank';
-import type { Patch, PatchInput, PickupOutput } from '../../../shared/patch/patch-schema';
-import { validatePatch } from '../../../shared/patch/validate-patch';
+import type { Patch, PickupOutput } from '../../../shared/patch/patch-schema';
 import { exactModeSolution } from '../../support/exact-mode-solution';
-import { testPatch } from '../../support/patches';
-
-function valid(input: PatchInput): Patch {
-  const result = validatePatch(input);
-  if (!result.ok) throw new Error(result.issues.map((issue) => issue.message).join('; '));
-  return result.value;
-}
+import { testPatch, validPatch as valid } from '../../support/patches';
 
 /** Σ_n w_n·q_n(t) (or q_n'(t)) from the textbook solution of each mode, evaluated directly. */
 function exactPickupSignal(patch: Patch, table: ModeTable, t: number): number {

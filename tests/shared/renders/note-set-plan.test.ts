@@ -1,17 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { retunePatch } from '../../../shared/designer/retune-patch';
 import { renderPatch } from '../../../shared/engine/render-patch';
-import type { Patch } from '../../../shared/patch/patch-schema';
 import { validatePatch } from '../../../shared/patch/validate-patch';
 import { applyStrength, noteSetPlan, type NoteSetFile } from '../../../shared/renders/note-set-plan';
 import { noteSetSpec, type NoteSetSpec } from '../../../shared/renders/render-settings';
-import { testPatch } from '../../support/patches';
-
-function valid(input: unknown): Patch {
-  const result = validatePatch(input);
-  if (!result.ok) throw new Error(result.issues.map((issue) => issue.message).join('; '));
-  return result.value;
-}
+import { pluckedAndStruck, testPatch, validPatch as valid } from '../../support/patches';
 
 const spec: NoteSetSpec = noteSetSpec.parse({ fromMidi: 36, toMidi: 84, stepSemitones: 3, strengths: 3, retuneBy: 'tension' });
 const plan = noteSetPlan(spec, 'Saltglass Reach: Harbour Harp');
@@ -110,22 +103,7 @@ describe('noteSetPlan', () => {
 describe('applyStrength', () => {
   const struck = valid(
     testPatch({
-      excitation: {
-        displacementM: [
-          [0, 0],
-          [0.15, 0.0027],
-          [0.17, 0.003],
-          [0.19, 0.0027],
-          [0.65, 0],
-        ],
-        velocityMPerS: [
-          [0, 0],
-          [0.4, 0],
-          [0.42, 0.8],
-          [0.44, 0],
-          [0.65, 0],
-        ],
-      },
+      excitation: pluckedAndStruck(),
       render: { sampleRateHz: 48000, durationS: 0.2, maxModes: 256 },
     }),
   );

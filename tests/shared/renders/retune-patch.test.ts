@@ -2,16 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { retunePatch, type RetuneBy } from '../../../shared/designer/retune-patch';
 import { modeFrequencyHz } from '../../../shared/engine/mode-frequencies';
 import { renderPatch } from '../../../shared/engine/render-patch';
-import type { Patch, PatchInput } from '../../../shared/patch/patch-schema';
+import type { PatchInput } from '../../../shared/patch/patch-schema';
 import { validatePatch } from '../../../shared/patch/validate-patch';
 import { estimateFrequencyHz } from '../../support/pitch-estimate';
-import { testPatch } from '../../support/patches';
-
-function valid(input: unknown): Patch {
-  const result = validatePatch(input);
-  if (!result.ok) throw new Error(result.issues.map((issue) => issue.message).join('; '));
-  return result.value;
-}
+import { pluckedAndStruck, testPatch, validPatch as valid } from '../../support/patches';
 
 /** Written out here, not taken from shared/designer/pitch: f = 440·2^((n − 69)/12) (MIDI Tuning Standard, A4 = 440 Hz per ISO 16). */
 const noteHz = (note: number) => 440 * 2 ** ((note - 69) / 12);
@@ -29,22 +23,7 @@ const stiff = valid(
 const struck = valid({
   ...testPatch({
     string: { lengthM: 0.65, tensionN: 70, linearDensityKgPerM: 6e-4, inharmonicityB: 3e-4 },
-    excitation: {
-      displacementM: [
-        [0, 0],
-        [0.15, 0.0027],
-        [0.17, 0.003],
-        [0.19, 0.0027],
-        [0.65, 0],
-      ],
-      velocityMPerS: [
-        [0, 0],
-        [0.4, 0],
-        [0.42, 0.8],
-        [0.44, 0],
-        [0.65, 0],
-      ],
-    },
+    excitation: pluckedAndStruck(),
     render: { sampleRateHz: 48000, durationS: 2, maxModes: 64 },
   } satisfies Partial<PatchInput>),
   design: { studio: 'Kestrel Lantern Audio', note: 'Saltglass Reach harbour harp, low string' },
