@@ -1,4 +1,5 @@
 import { useId, type InputHTMLAttributes } from 'react';
+import { describedByOf, FormField, formControlClass } from './form-field';
 
 export interface TextFieldProps extends Omit<InputHTMLAttributes<HTMLInputElement>, 'id'> {
   label: string;
@@ -8,32 +9,11 @@ export interface TextFieldProps extends Omit<InputHTMLAttributes<HTMLInputElemen
 }
 
 /** A labelled input whose error and hint are announced with it (aria-describedby, aria-invalid). */
-export function TextField({ label, error, hint, className = '', ...rest }: TextFieldProps) {
+export function TextField({ label, error, hint, className, ...rest }: TextFieldProps) {
   const id = useId();
-  const describedBy = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(' ') || undefined;
   return (
-    <div className={`flex flex-col gap-1 ${className}`}>
-      <label htmlFor={id} className="text-sm font-semibold text-slate-800 dark:text-slate-100">
-        {label}
-      </label>
-      <input
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy}
-        className={`rounded-md border bg-white px-3 py-2 text-slate-900 shadow-sm outline-none focus-visible:ring-2 focus-visible:ring-teal-400 dark:bg-slate-900 dark:text-slate-100 ${
-          error ? 'border-ember-500' : 'border-slate-700/30 dark:border-slate-300/20'
-        }`}
-        {...rest}
-      />
-      {hint && (
-        <p id={`${id}-hint`} className="text-xs text-slate-600 dark:text-slate-300">
-          {hint}
-        </p>
-      )}
-      {/* Space is kept for the message so the form does not jump when one appears. */}
-      <p id={`${id}-error`} role={error ? 'alert' : undefined} className="min-h-5 text-sm text-ember-600 dark:text-ember-400">
-        {error ?? ''}
-      </p>
-    </div>
+    <FormField id={id} label={label} error={error} hint={hint} className={className}>
+      <input id={id} aria-invalid={error ? true : undefined} aria-describedby={describedByOf(id, error, hint)} className={formControlClass(error)} {...rest} />
+    </FormField>
   );
 }

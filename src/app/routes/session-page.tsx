@@ -3,9 +3,11 @@ import { Link, useParams } from 'react-router-dom';
 import { patchDoc } from '../../../shared/collab/patch-doc';
 import { deletePoint, movePoint } from '../../../shared/collab/point-edits';
 import { Button } from '../../components/button';
+import { COMPACT_CONTROL_CLASS } from '../../components/compact-control';
 import { ErrorBoundary } from '../../components/error-boundary';
 import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
+import { SegmentedChoice } from '../../components/segmented-choice';
 import { useMe } from '../../features/auth/api/get-me';
 import { useSessionConnection } from '../../features/collab/hooks/use-session-connection';
 import { LossesPanel, PickupPanel, RenderPanel, StringPanel } from '../../features/editor/components/patch-panels';
@@ -181,21 +183,15 @@ export default function SessionPage() {
       </ErrorBoundary>
       {patch && (
         <section aria-label="Layers" className="flex flex-wrap items-center gap-4 text-sm">
-          <div role="radiogroup" aria-label="Canvas tool" className="flex overflow-hidden rounded-md border border-slate-700/30 dark:border-slate-300/20">
-            {(['edit', 'draw'] as const).map((option) => (
-              <button
-                key={option}
-                type="button"
-                role="radio"
-                aria-checked={tool === option}
-                disabled={readOnly && option === 'draw'}
-                onClick={() => setTool(option)}
-                className={`px-3 py-1 ${tool === option ? 'bg-teal-700 text-white dark:bg-teal-500 dark:text-slate-950' : ''} disabled:opacity-50`}
-              >
-                {option === 'edit' ? 'Edit points' : 'Draw freehand'}
-              </button>
-            ))}
-          </div>
+          <SegmentedChoice
+            label="Canvas tool"
+            value={tool}
+            onChange={setTool}
+            options={[
+              { value: 'edit', label: 'Edit points' },
+              { value: 'draw', label: 'Draw freehand', disabled: readOnly },
+            ]}
+          />
           {patch.excitation.velocityMPerS ? (
             <>
               <label className="flex items-center gap-2">
@@ -204,7 +200,7 @@ export default function SessionPage() {
               </label>
               <label className="flex items-center gap-2">
                 Clicking the line adds to
-                <select value={activeLayer} onChange={(event) => setActiveLayer(event.target.value as 'displacement' | 'velocity')} className="rounded border border-slate-700/30 bg-white px-2 py-1 dark:border-slate-300/20 dark:bg-slate-900">
+                <select value={activeLayer} onChange={(event) => setActiveLayer(event.target.value as 'displacement' | 'velocity')} className={COMPACT_CONTROL_CLASS}>
                   <option value="displacement">the shape (displacement)</option>
                   <option value="velocity">the strike layer (velocity)</option>
                 </select>

@@ -10,6 +10,7 @@ import { LIMITS } from '../../../../shared/limits';
 import { Notice } from '../../../components/notice';
 import type { SessionConnection } from '../../collab/api/session-connection';
 import { NumberField } from './number-field';
+import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 
 interface PanelProps {
   connection: SessionConnection;
@@ -109,7 +110,7 @@ export function PickupPanel({ connection, patch, readOnly }: PanelProps) {
           value={patch.pickup.output}
           disabled={readOnly}
           onChange={(event) => connection.edit((doc) => patchDoc(doc).pickup.set('output', event.target.value))}
-          className="rounded border border-slate-700/30 bg-white px-2 py-1 text-sm font-normal dark:border-slate-300/20 dark:bg-slate-900"
+          className={`${COMPACT_CONTROL_CLASS} text-sm font-normal`}
         >
           <option value="displacement">displacement</option>
           <option value="velocity">velocity</option>
@@ -132,7 +133,7 @@ export function RenderPanel({ connection, patch, readOnly }: PanelProps) {
           value={patch.render.sampleRateHz}
           disabled={readOnly}
           onChange={(event) => set('sampleRateHz', Number(event.target.value))}
-          className="rounded border border-slate-700/30 bg-white px-2 py-1 text-sm font-normal dark:border-slate-300/20 dark:bg-slate-900"
+          className={`${COMPACT_CONTROL_CLASS} text-sm font-normal`}
         >
           {LIMITS.sampleRatesHz.map((rate) => (
             <option key={rate} value={rate}>

@@ -1,5 +1,7 @@
 import { useCallback, useEffect, useState } from 'react';
 import { Button } from '../../../components/button';
+import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
+import { SegmentedChoice } from '../../../components/segmented-choice';
 import { cautionSeen, playSamples, playUrl, stopPlayback } from '../../audition/audio-output';
 import { AudioCaution } from '../../audition/components/audio-caution';
 import type { ComputeResult } from '../../collab/api/session-connection';
@@ -93,7 +95,7 @@ export function PreviewAudition({ result, comparisons = [] }: { result: ComputeR
                 setComparisonId(event.target.value);
                 if (!event.target.value) setSide('a');
               }}
-              className="rounded border border-slate-700/30 bg-white px-2 py-1 dark:border-slate-300/20 dark:bg-slate-900"
+              className={COMPACT_CONTROL_CLASS}
             >
               <option value="">no preset</option>
               {comparisons.map((sound) => (
@@ -104,20 +106,16 @@ export function PreviewAudition({ result, comparisons = [] }: { result: ComputeR
             </select>
           </label>
           {comparison && (
-            <div role="radiogroup" aria-label="A/B" aria-keyshortcuts="B" className="flex overflow-hidden rounded-md border border-slate-700/30 text-sm dark:border-slate-300/20">
-              {(['a', 'b'] as const).map((option) => (
-                <button
-                  key={option}
-                  type="button"
-                  role="radio"
-                  aria-checked={side === option}
-                  onClick={() => switchSide(option)}
-                  className={`px-3 py-1 ${side === option ? 'bg-teal-700 text-white dark:bg-teal-500 dark:text-slate-950' : ''}`}
-                >
-                  {option === 'a' ? 'A: this string' : `B: ${comparison.name}`}
-                </button>
-              ))}
-            </div>
+            <SegmentedChoice
+              label="A/B"
+              keyShortcuts="B"
+              value={side}
+              onChange={switchSide}
+              options={[
+                { value: 'a', label: 'A: this string' },
+                { value: 'b', label: `B: ${comparison.name}` },
+              ]}
+            />
           )}
         </>
       )}

@@ -4,6 +4,7 @@ import { Layer, Line, Stage, Text } from 'react-konva';
 import { modeAmplitudesAt, modeShapeTable, stringShapeM } from '../../../../shared/engine/modal-motion';
 import type { ComputeResult } from '../../collab/api/session-connection';
 import { Button } from '../../../components/button';
+import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 import { useContainerWidth } from '../results/use-container-width';
 
 /** Modes the animation sums: the shape a viewer can see needs far fewer than the sound. */
@@ -107,7 +108,7 @@ export const StringMotion = memo(function StringMotion({ result, lengthM, dark }
         </Button>
         <label className="flex items-center gap-2 text-sm">
           Speed
-          <select value={speed} onChange={(event) => setSpeed(event.target.value as SpeedId)} className="rounded border border-slate-700/30 bg-white px-2 py-1 dark:border-slate-300/20 dark:bg-slate-900">
+          <select value={speed} onChange={(event) => setSpeed(event.target.value as SpeedId)} className={COMPACT_CONTROL_CLASS}>
             {SPEEDS.map((option) => (
               <option key={option.id} value={option.id}>
                 {option.label}

@@ -12,7 +12,7 @@ import { useMembers } from '../api/get-members';
 import { useRemoveMember } from '../api/remove-member';
 import { formatDate, formatDateTime } from '../format-time';
 import { LAST_LEAD_REASON, ROLE_NAMES } from '../role-words';
-import { ConfirmAction } from './confirm-action';
+import { ConfirmAction } from '../../../components/confirm-action';
 import { RoleSelect } from './role-select';
 
 export interface MembersTableProps {

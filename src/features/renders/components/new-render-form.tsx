@@ -13,7 +13,7 @@ import { createRenderInputSchema, useCreateRender } from '../api/create-render';
 import { noteSetSize } from '../note-set-size';
 import { DEFAULT_RENDER_FORM, numberFromText, renderBodyFromForm, type RenderFormValues } from '../render-form-values';
 import { sampleRateText, signedNumber } from '../render-summary';
-import { SelectField } from './select-field';
+import { SelectField } from '../../../components/select-field';
 
 type NumberKey = 'secondPickupMm' | 'durationS' | 'thresholdDb' | 'fadeMs' | 'maxDurationS' | 'ceilingDbfs' | 'targetLufs' | 'truePeakCeilingDbtp' | 'fromMidi' | 'toMidi' | 'stepSemitones' | 'strengths';
 

@@ -1,12 +1,12 @@
 import { ACTION_REASONS } from '../../../../shared/access/roles';
 import type { RenderView } from '../../../../shared/renders/render-settings';
 import { Button } from '../../../components/button';
+import { ConfirmAction } from '../../../components/confirm-action';
 import { DataTable, type Column } from '../../../components/data-table';
 import { AuditionButton } from '../../audition/components/audition-button';
 import { renderFileUrl, renderPatchUrl, renderPlayUrl } from '../api/render-file-urls';
 import { isRenderActive } from '../apply-render-progress';
 import { byteSize, lengthRuleSummary, noteSetSummary, outputSummary, signedNumber } from '../render-summary';
-import { DeleteRenderButton } from './delete-render-button';
 import { RenderState } from './render-state';
 
 export interface RendersTableProps {
@@ -120,7 +120,17 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
                 Cancel{forRender(render.name)}
               </Button>
             )}
-            <DeleteRenderButton renderName={render.name} busy={busy} disabledReason={canDelete ? undefined : ACTION_REASONS.deleteRenders} onConfirm={() => onDelete(render)} />
+            <ConfirmAction
+              label="Delete"
+              ariaLabel={`Delete ${render.name}`}
+              question={`Delete “${render.name}” and its file for everyone?`}
+              showQuestion
+              confirmLabel="Delete file"
+              cancelLabel="Keep it"
+              busy={busy}
+              disabledReason={canDelete ? undefined : ACTION_REASONS.deleteRenders}
+              onConfirm={() => onDelete(render)}
+            />
           </div>
         );
       },

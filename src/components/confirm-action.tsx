@@ -1,5 +1,5 @@
 import { useEffect, useRef, useState } from 'react';
-import { Button } from '../../../components/button';
+import { Button } from './button';
 
 export interface ConfirmActionProps {
   /** The first button's text, e.g. "Remove". */
@@ -10,6 +10,10 @@ export interface ConfirmActionProps {
   question: string;
   /** The confirming button's text, e.g. "Yes, remove". */
   confirmLabel: string;
+  /** The withdrawing button's text; "Cancel" unless given. */
+  cancelLabel?: string;
+  /** Shows the question beside the buttons, not only on hover. */
+  showQuestion?: boolean;
   onConfirm: () => void;
   busy?: boolean;
   disabledReason?: string;
@@ -20,7 +24,7 @@ export interface ConfirmActionProps {
  * A destructive action in two steps: the button turns into a confirm and a cancel button, grouped
  * under the question. Focus goes to cancel when the question appears, and back to the button when it is withdrawn.
  */
-export function ConfirmAction({ label, ariaLabel, question, confirmLabel, onConfirm, busy = false, disabledReason, describedBy }: ConfirmActionProps) {
+export function ConfirmAction({ label, ariaLabel, question, confirmLabel, cancelLabel = 'Cancel', showQuestion = false, onConfirm, busy = false, disabledReason, describedBy }: ConfirmActionProps) {
   const [confirming, setConfirming] = useState(false);
   const [returnFocus, setReturnFocus] = useState(false);
   // Button takes no ref, so focus is moved through the wrapper around it.
@@ -45,7 +49,8 @@ export function ConfirmAction({ label, ariaLabel, question, confirmLabel, onConf
   }
   return (
     // The question names the group for screen readers and shows on hover; the row says whom it is about.
-    <span ref={wrapper} role="group" aria-label={question} title={question} className="inline-flex items-center justify-end gap-2">
+    <span ref={wrapper} role="group" aria-label={question} title={question} className="inline-flex flex-wrap items-center justify-end gap-2">
+      {showQuestion && <span className="text-xs text-slate-700 dark:text-slate-300">{question}</span>}
       <Button variant="danger" busy={busy} onClick={onConfirm}>
         {confirmLabel}
       </Button>
@@ -58,7 +63,7 @@ export function ConfirmAction({ label, ariaLabel, question, confirmLabel, onConf
           setReturnFocus(true);
         }}
       >
-        Cancel
+        {cancelLabel}
       </Button>
     </span>
   );
