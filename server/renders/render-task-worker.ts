@@ -42,7 +42,7 @@ function plan(task: Extract<RenderTask, { type: 'plan' }>): PlanResult {
   const maxSamples = renderSampleCount(patch);
   const bank = renderBankFor(patch, table, pickupsM, maxSamples);
   const totalSamples = task.output.length.kind === 'untilDecayed' ? decayedLengthSamples(bank, patch.render.sampleRateHz, task.output.length.thresholdDb) : maxSamples;
-  return { totalSamples, pickupsM, modeCount: table.count, segments: planSegments(bank, totalSamples) };
+  return { totalSamples, pickupsM, segments: planSegments(bank, totalSamples) };
 }
 
 function segment(task: Extract<RenderTask, { type: 'segment' }>): Float64Array[] {

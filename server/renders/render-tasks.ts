@@ -23,7 +23,6 @@ export interface PlanResult {
   /** One pickup per channel. */
   pickupsM: number[];
   segments: RenderSegment[];
-  modeCount: number;
 }
 
 export interface FinishResult {

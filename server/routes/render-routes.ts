@@ -101,7 +101,7 @@ export function renderRoutes(context: AppContext): Router {
     const { channels } = body.output;
     if (channels.kind === 'stereo' && !(channels.secondPickupPositionM < patch.string.lengthM)) {
       const field = ['output', 'channels', 'secondPickupPositionM'];
-      throw invalidFields([fieldIssue(field, `must lie on the string, between 0 and its length (${(patch.string.lengthM * 1000).toFixed(1)} mm)`, channels.secondPickupPositionM)]);
+      throw invalidFields([fieldIssue(field, `must lie on the string: more than 0 and less than its length, ${patch.string.lengthM} m (${(patch.string.lengthM * 1000).toFixed(1)} mm)`, channels.secondPickupPositionM)]);
     }
     const patchJsonBytes = Buffer.byteLength(JSON.stringify(patch));
     const files = body.kind === 'noteSet' ? noteSetFileCount(body.noteSet) : 1;

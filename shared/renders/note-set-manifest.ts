@@ -1,7 +1,7 @@
 import { assert } from '../assert';
 import type { WavFormat } from '../audio/wav-format';
 import type { RetuneBy } from '../designer/retune-patch';
-import type { DecibelsFullScale, Hertz, LoudnessUnitsFullScale, MidiNote, SampleRate, Seconds } from '../units';
+import type { DecibelsFullScale, Hertz, LoudnessUnitsFullScale, SampleRate, Seconds } from '../units';
 import type { NoteSetFile } from './note-set-plan';
 import type { RenderOutput } from './render-settings';
 
@@ -11,22 +11,11 @@ export const NOTE_SET_MANIFEST_VERSION = 1;
 /** Name of the manifest inside a note set's ZIP, beside the WAV files. */
 export const NOTE_SET_MANIFEST_FILE_NAME = 'manifest.json';
 
-/** One WAV file of a set as the manifest lists it: where it sits on the keyboard and how loud it came out. */
-export interface NoteSetManifestFile {
-  /** File name inside the set (no folders). */
-  file: string;
-  rootMidi: MidiNote;
-  rootName: string;
-  /** Keys and note-on velocities the file is played for, inclusive. */
-  keyLowMidi: MidiNote;
-  keyHighMidi: MidiNote;
-  strength: number;
-  strengthCount: number;
-  velocityLow: number;
-  velocityHigh: number;
-  /** How the strength was played: the excitation's scale and the contact width's factor (see NOTE_SET_STRENGTHS). */
-  displacementScale: number;
-  widthFactor: number;
+/**
+ * One WAV file of a set as the manifest lists it: its place in the plan (keys, velocities, strength
+ * and how it was played, as `NoteSetFile` says, its name as `file`) and how it came out.
+ */
+export type NoteSetManifestFile = { file: string } & Omit<NoteSetFile, 'fileName'> & {
   /**
    * The first partial of the retuned string, stiffness included, f1 = f0·√(1 + B): the root's
    * frequency 440·2^((n − 69)/12) (MIDI Tuning Standard), where `retunePatch` puts it.
@@ -37,7 +26,7 @@ export interface NoteSetManifestFile {
   peakDbfs: DecibelsFullScale | null;
   truePeakDbtp: DecibelsFullScale | null;
   integratedLufs: LoudnessUnitsFullScale | null;
-}
+};
 
 /**
  * The manifest of a note set: our own JSON design, versioned, one per ZIP. It says what made the
@@ -108,18 +97,9 @@ export function buildNoteSetManifest(set: {
     sampleRateHz: set.output.sampleRateHz,
     sampleFormat: set.output.format,
     channels: set.output.channels.kind === 'stereo' ? 2 : 1,
-    files: set.files.map(({ planned, rendered }) => ({
-      file: planned.fileName,
-      rootMidi: planned.rootMidi,
-      rootName: planned.rootName,
-      keyLowMidi: planned.keyLowMidi,
-      keyHighMidi: planned.keyHighMidi,
-      strength: planned.strength,
-      strengthCount: planned.strengthCount,
-      velocityLow: planned.velocityLow,
-      velocityHigh: planned.velocityHigh,
-      displacementScale: planned.displacementScale,
-      widthFactor: planned.widthFactor,
+    files: set.files.map(({ planned: { fileName, ...placement }, rendered }) => ({
+      file: fileName,
+      ...placement,
       fundamentalHz: rendered.fundamentalHz,
       durationS: rendered.durationS,
       peakDbfs: finiteOrNull(rendered.peakDbfs),
