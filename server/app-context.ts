@@ -3,6 +3,7 @@ import type { Mailer } from './mail/mailer';
 import type { FakeMailbox } from './mail/fake-smtp-server';
 import type { CollabHub } from './collab/collab-hub';
 import type { RenderService } from './renders/render-service';
+import type { AccessEvents } from './access/access-events';
 
 export interface ServerConfig {
   /** Where links in e-mails point, e.g. http://localhost:3000. */
@@ -30,6 +31,8 @@ export interface AppContext {
   mailer: Mailer;
   mailbox: FakeMailbox | null;
   clock: () => Date;
+  /** Access changes (roles, removals, archive, password, sign-out) reaching open live connections. */
+  access: AccessEvents;
   log: (line: string) => void;
   /** The live documents, when the HTTP server runs the collaboration endpoint. */
   collab?: CollabHub;

@@ -6,6 +6,7 @@ import { startFakeSmtpServer } from './mail/fake-smtp-server';
 import { createSmtpMailer } from './mail/mailer';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from './seed/demo-seed';
 import { createTautlineServer } from './http-server';
+import { inProcessAccessEvents } from './access/access-events';
 
 const MAIL_FROM = 'Tautline <no-reply@tautline.local>';
 
@@ -29,7 +30,7 @@ export async function startServer(options: { serveClient: boolean }): Promise<{ 
   const mailer = createSmtpMailer(process.env.SMTP_URL ?? (mailbox as NonNullable<typeof mailbox>).smtpUrl, MAIL_FROM);
   if (mailbox) log('No SMTP_URL: e-mail goes to the local mailbox at /dev/mailbox');
 
-  const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(), log };
+  const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(), log, access: inProcessAccessEvents() };
   const tautline = createTautlineServer(context, { clientDistDir: options.serveClient ? CLIENT_DIST_DIR : undefined });
   const server = tautline.server;
   const boundPort = await tautline.listen(port);

@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import request from 'supertest';
 import type { Express } from 'express';
 import type { DataSource } from 'typeorm';
+import { inProcessAccessEvents } from '../../server/access/access-events';
 import { createApp } from '../../server/app';
 import { createTautlineServer, type TautlineServer } from '../../server/http-server';
 import type { AppContext, ServerConfig } from '../../server/app-context';
@@ -52,7 +53,7 @@ export async function startTestServer(overrides: Partial<ServerConfig> = {}, dat
     renderQuotaBytes: 512 * 1024 * 1024,
     ...overrides,
   };
-  const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(Date.now() + offsetMs), log: () => {} };
+  const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(Date.now() + offsetMs), log: () => {}, access: inProcessAccessEvents() };
   return {
     app: createApp(context),
     context,
