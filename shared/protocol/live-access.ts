@@ -1,0 +1,35 @@
+/**
+ * How the server tells a live session's people that their access or the session changed, or that
+ * an edit was refused. Two paths:
+ * - the collaboration websocket closes with one of LIVE_CLOSE_CODES and a short reason;
+ * - the compute channel (socket.io) sends a SessionNotice (SESSION_NOTICE_EVENT) for changes that
+ *   keep the connection open (now read-only, writable again, edits not being saved).
+ */
+
+/** Websocket close codes of the collaboration endpoint (4000-4999 are the application's own, RFC 6455 §7.4.2). */
+export const LIVE_CLOSE_CODES = {
+  /** Removed from the studio, account deleted, token signed out or void after a password change: do not reconnect. */
+  accessRevoked: 4001,
+  /** The role changed: reconnect (with a fresh document) to get the new rights. */
+  roleChanged: 4002,
+  /** The session was deleted: do not reconnect. */
+  sessionDeleted: 4004,
+  /** An edit would have made the patch invalid, or was too large: it was not applied or stored. Reconnect with a fresh document. */
+  editRefused: 4400,
+  /** Too many edits whose dependencies never arrived, or too much data: the connection was dropped. Reconnect with a fresh document. */
+  flooded: 4429,
+} as const;
+
+export type LiveCloseCode = (typeof LIVE_CLOSE_CODES)[keyof typeof LIVE_CLOSE_CODES];
+
+export const SESSION_NOTICE_EVENT = 'session:notice';
+
+export type SessionNotice =
+  /** Your edits are now dropped: your role no longer may edit, or the session was archived. */
+  | { kind: 'read-only'; sessionId: string; reason: 'role' | 'archived'; message: string }
+  /** You may edit again (role raised, session restored). */
+  | { kind: 'writable'; sessionId: string; message: string }
+  /** The server cannot store the session's edits right now (e.g. the database is read-only). */
+  | { kind: 'not-saving'; sessionId: string; message: string }
+  /** Edits are being stored again. */
+  | { kind: 'saving'; sessionId: string };
