@@ -20,6 +20,14 @@ export const LIMITS = {
   /** Password length bounds. */
   minPasswordLength: 10,
   maxPasswordLength: 200,
+  /**
+   * Per-account limits (besides the per-address limit on sign-in, register and reset): failed
+   * sign-ins per e-mail address, wrong current passwords per account, and invitation e-mails per
+   * studio and address. Over a limit the server answers 429 with Retry-After.
+   */
+  signInFailuresPerAccount: { windowS: 15 * 60, limit: 10 },
+  passwordChecksPerAccount: { windowS: 15 * 60, limit: 5 },
+  invitationMailsPerAddress: { windowS: 60 * 60, limit: 3 },
   /** Longest display name, studio, session or preset name, in characters. */
   maxLabelLength: 120,
   /** Most tags on one preset, and the longest tag. */
@@ -57,6 +65,15 @@ export const LIMITS = {
   renderQuotaBytes: 2 * 1024 * 1024 * 1024,
   /** Queued or running render jobs one studio may have at once. */
   maxQueuedRendersPerStudio: 8,
+  /**
+   * Fields a patch carries beside the physics (designer notes such as material or target pitch):
+   * the deepest nesting anywhere in a patch (a polyline point is 4 levels down), and the total
+   * size of all such fields, as JSON text. Deeper or larger input is refused before anything is stored.
+   */
+  maxPatchNestingDepth: 16,
+  maxPassThroughBytes: 64 * 1024,
+  /** The live document of a session, encoded: larger is refused (a 10,000-point patch is about 0.5 MB). */
+  maxLiveDocumentBytes: 8 * 1024 * 1024,
   /** Largest patch JSON file the command line reads, in bytes. */
   maxPatchFileBytes: 4 * 1024 * 1024,
 } as const;

@@ -2,6 +2,7 @@ import { patchSchema, type Patch, type Polyline } from './patch-schema';
 import { fieldIssue, type FieldIssue, type Validation } from './field-issue';
 import { issueFromZod } from './zod-issues';
 import { fundamentalFrequencyHz } from '../engine/mode-frequencies';
+import { passThroughIssues } from './pass-through-bounds';
 
 /** The rules of one polyline that tie it to the string: ends at 0 and L, x strictly increasing, zero at both ends. */
 function polylineIssues(points: Polyline, lengthM: number, path: ReadonlyArray<PropertyKey>): FieldIssue[] {
@@ -30,6 +31,8 @@ export function validatePatch(input: unknown): Validation<Patch> {
   if (input === null || typeof input !== 'object' || Array.isArray(input)) {
     return { ok: false, issues: [fieldIssue([], 'must be a JSON object', input)] };
   }
+  const bounds = passThroughIssues(input as Record<string, unknown>);
+  if (bounds.length > 0) return { ok: false, issues: bounds };
   const parsed = patchSchema.safeParse(input);
   if (!parsed.success) return { ok: false, issues: parsed.error.issues.map((issue) => issueFromZod(issue, input)) };
 
