@@ -8,12 +8,15 @@ const serverPort = Number(process.env.PORT ?? 3000);
 export default defineConfig({
   plugins: [react(), tailwindcss()],
   server: {
+    // The API accepts changes from this origin in development (DEV_CLIENT_PORT in server/config.ts): keep the port fixed.
     port: 5173,
-    // In development the API runs on its own port; Vite forwards to it.
+    strictPort: true,
+    // In development the API runs on its own port (on 127.0.0.1 by default); Vite forwards to it.
+    // No X-Forwarded-For is added (xfwd stays off), so the local mailbox still answers through this proxy.
     proxy: {
-      '/api': `http://localhost:${serverPort}`,
-      '/collab': { target: `ws://localhost:${serverPort}`, ws: true },
-      '/socket.io': { target: `http://localhost:${serverPort}`, ws: true },
+      '/api': `http://127.0.0.1:${serverPort}`,
+      '/collab': { target: `ws://127.0.0.1:${serverPort}`, ws: true },
+      '/socket.io': { target: `http://127.0.0.1:${serverPort}`, ws: true },
     },
   },
   build: {

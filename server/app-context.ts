@@ -22,6 +22,27 @@ export interface ServerConfig {
   rendersDir: string;
   /** Render storage per studio, bytes. */
   renderQuotaBytes: number;
+  /** Origins besides APP_URL's own that may send changes and open live connections (ALLOWED_ORIGINS). */
+  allowedOrigins?: string[];
+  /** DEV_MAILBOX_REMOTE=true: the local mailbox answers other machines too (a demo opt-in; never in production). */
+  mailboxRemote?: boolean;
+  /** Per-account limits (sign-in failures, password checks, invitation mails); defaults in LIMITS. */
+  accountRateLimits?: Partial<AccountRateLimits>;
+}
+
+/** A fixed-window limit: at most `limit` counted attempts per `windowS` seconds for one key. */
+export interface WindowLimit {
+  windowS: number;
+  limit: number;
+}
+
+export interface AccountRateLimits {
+  /** Failed sign-ins per e-mail address (normalised). */
+  signInFailures: WindowLimit;
+  /** Wrong current passwords per account (password change, account deletion). */
+  passwordChecks: WindowLimit;
+  /** Invitation e-mails per studio and address (new, repeated and resent invitations). */
+  invitationMails: WindowLimit;
 }
 
 /** What every route receives: the database, the settings, the mail sender and (locally) the mailbox. */

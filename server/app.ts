@@ -7,6 +7,7 @@ import { LIMITS } from '../shared/limits';
 import type { AppContext } from './app-context';
 import { ApiError } from './http/api-error';
 import { errorHandler } from './http/error-handler';
+import { requireOwnOrigin } from './http/request-origin';
 import { authRoutes } from './routes/auth-routes';
 import { devMailboxRoutes } from './routes/dev-mailbox-routes';
 import { invitationRoutes } from './routes/invitation-routes';
@@ -39,6 +40,8 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
       },
     }),
   );
+  // A browser page from another site may not change anything here with this user's cookie.
+  app.use(requireOwnOrigin(context.config));
   app.use(cookieParser());
   app.use('/api', express.json({ limit: LIMITS.maxRequestBodyBytes }));
 

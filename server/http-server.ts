@@ -1,17 +1,36 @@
 import { createServer, type Server } from 'node:http';
+import type { Duplex } from 'node:stream';
 import { createApp, type AppOptions } from './app';
 import type { AppContext } from './app-context';
 import { CollabHub } from './collab/collab-hub';
 import { typeormCollabStorage } from './collab/collab-storage';
 import { COLLAB_PATH, collabUpgradeHandler } from './collab/collab-upgrade';
 import { attachComputeChannel } from './compute/compute-channel';
+import { isOriginAllowed } from './http/request-origin';
 import { attachRenderChannel } from './renders/render-channel';
 import { RenderService } from './renders/render-service';
+
+/** Refuses an upgrade with a plain HTTP answer and closes the socket. */
+function refuseUpgrade(socket: Duplex, status: number, reason: string, text: string): void {
+  socket.on('error', () => socket.destroy());
+  socket.end(`HTTP/1.1 ${status} ${reason}\r\nConnection: close\r\nContent-Type: text/plain; charset=utf-8\r\nContent-Length: ${Buffer.byteLength(text)}\r\n\r\n${text}`);
+}
+
+/** True when the path's percent-encoding decodes (a broken `%E0%A4%A` would otherwise throw deep in the handler). */
+function decodablePath(path: string): boolean {
+  try {
+    decodeURIComponent(new URL(path, 'http://localhost').pathname);
+    return true;
+  } catch {
+    return false;
+  }
+}
 
 export interface TautlineServer {
   server: Server;
   hub: CollabHub;
-  listen(port: number): Promise<number>;
+  /** Listens on `port` (0: a free one) at `host` (default 127.0.0.1, this machine only); resolves with the port. */
+  listen(port: number, host?: string): Promise<number>;
   close(): Promise<void>;
 }
 
@@ -30,16 +49,23 @@ export function createTautlineServer(context: AppContext, options: AppOptions & 
   const collabUpgrade = collabUpgradeHandler(context, hub);
   server.on('upgrade', (request, socket, head) => {
     const path = request.url ?? '';
-    if (path.startsWith('/socket.io/')) return; // socket.io answers its own upgrades
-    if (path.startsWith(COLLAB_PATH)) return collabUpgrade(request, socket, head);
+    if (path.startsWith('/socket.io/')) return; // socket.io answers its own upgrades (and checks Origin in allowRequest)
+    if (path.startsWith(COLLAB_PATH)) {
+      // Browsers always send Origin on a websocket: a page from another site may not open a document with the user's cookie.
+      if (!isOriginAllowed(context.config, request.headers.origin)) return refuseUpgrade(socket, 403, 'Forbidden', 'Live documents open only from the app\'s own pages (APP_URL, ALLOWED_ORIGINS)');
+      if (!decodablePath(path)) return refuseUpgrade(socket, 400, 'Bad Request', 'The document address is not valid percent-encoding');
+      return collabUpgrade(request, socket, head);
+    }
     socket.end('HTTP/1.1 404 Not Found\r\nConnection: close\r\n\r\n');
   });
   return {
     server,
     hub,
-    listen: (port) =>
-      new Promise((resolve) => {
-        server.listen(port, () => {
+    listen: (port, host = '127.0.0.1') =>
+      new Promise((resolve, reject) => {
+        server.once('error', reject);
+        server.listen(port, host, () => {
+          server.off('error', reject);
           const address = server.address();
           resolve(typeof address === 'object' && address ? address.port : port);
         });

@@ -27,7 +27,7 @@ export const LIMITS = {
    */
   signInFailuresPerAccount: { windowS: 15 * 60, limit: 10 },
   passwordChecksPerAccount: { windowS: 15 * 60, limit: 5 },
-  invitationMailsPerAddress: { windowS: 60 * 60, limit: 3 },
+  invitationMailsPerAddress: { windowS: 60 * 60, limit: 5 },
   /** Longest display name, studio, session or preset name, in characters. */
   maxLabelLength: 120,
   /** Most tags on one preset, and the longest tag. */

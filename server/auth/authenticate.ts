@@ -2,7 +2,8 @@ import type { Request, RequestHandler, Response } from 'express';
 import type { AppContext } from '../app-context';
 import { User } from '../db/entities/user';
 import { unauthenticated } from '../http/api-error';
-import { signAuthToken, verifyAuthToken } from './auth-tokens';
+import { signAuthToken, verifyAuthToken, type VerifiedToken } from './auth-tokens';
+import { isTokenRevoked } from './token-revocation';
 
 export const AUTH_COOKIE = 'tautline_token';
 
@@ -30,20 +31,21 @@ export function clearAuthCookie(context: AppContext, response: Response): void {
   response.clearCookie(AUTH_COOKIE, { httpOnly: true, sameSite: 'lax', secure: context.config.secureCookies, path: '/' });
 }
 
-function tokenFrom(request: Request): { token: string; fromCookie: boolean } | null {
+export function tokenFrom(request: Request): { token: string; fromCookie: boolean } | null {
   const header = request.headers.authorization;
   if (header?.startsWith('Bearer ')) return { token: header.slice(7).trim(), fromCookie: false };
   const cookie = (request.cookies as Record<string, string> | undefined)?.[AUTH_COOKIE];
   return cookie ? { token: cookie, fromCookie: true } : null;
 }
 
-/** The user a token belongs to, or null (bad signature, expired, revoked by a password change, user gone). */
-export async function userFromToken(context: AppContext, token: string): Promise<{ user: User; issuedAtS: number } | null> {
+/** The user a token belongs to, or null (bad signature, expired, signed out, revoked by a password change, user gone). */
+export async function userFromToken(context: AppContext, token: string): Promise<{ user: User; issuedAtS: number; claims: VerifiedToken } | null> {
   const claims = verifyAuthToken(token, context.config.jwtSecret);
   if (!claims) return null;
   const user = await context.dataSource.getRepository(User).findOneBy({ id: claims.sub });
   if (!user || user.tokenVersion !== claims.ver) return null;
-  return { user, issuedAtS: claims.iat };
+  if (await isTokenRevoked(context, claims.jti)) return null;
+  return { user, issuedAtS: claims.iat, claims };
 }
 
 /** The token in a raw Cookie header (websocket upgrades and socket.io handshakes). */

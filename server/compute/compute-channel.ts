@@ -16,6 +16,7 @@ import {
 } from '../../shared/protocol/compute-protocol';
 import type { AppContext } from '../app-context';
 import { tokenFromCookieHeader, userFromToken } from '../auth/authenticate';
+import { isOriginAllowed } from '../http/request-origin';
 import type { CollabHub } from '../collab/collab-hub';
 import { Membership } from '../db/entities/membership';
 import { Session } from '../db/entities/session';
@@ -37,7 +38,14 @@ interface SessionCompute {
  * problems instead.
  */
 export function attachComputeChannel(httpServer: HttpServer, context: AppContext, hub: CollabHub, previewDurationS: number = LIMITS.previewMaxDurationS) {
-  const io = new SocketServer(httpServer, { path: '/socket.io/', serveClient: false, destroyUpgrade: false, maxHttpBufferSize: 64 * 1024 });
+  const io = new SocketServer(httpServer, {
+    path: '/socket.io/',
+    serveClient: false,
+    destroyUpgrade: false,
+    maxHttpBufferSize: 64 * 1024,
+    // A page from another site may not open the channel with the user's cookie (403 on polling and upgrade alike).
+    allowRequest: (request, callback) => callback(null, isOriginAllowed(context.config, request.headers.origin)),
+  });
   // One worker per core; a session always computes on the same one, so two sessions never queue behind each other.
   const workers = Array.from({ length: Math.max(1, Math.min(2, availableParallelism())) }, () => new ComputeWorker());
   let nextWorker = 0;

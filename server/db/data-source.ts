@@ -5,6 +5,7 @@ import { DataSource } from 'typeorm';
 import { Invitation } from './entities/invitation';
 import { Membership } from './entities/membership';
 import { PasswordReset } from './entities/password-reset';
+import { RevokedToken } from './entities/revoked-token';
 import { Preset } from './entities/preset';
 import { Render } from './entities/render';
 import { Session } from './entities/session';
@@ -14,9 +15,10 @@ import { User } from './entities/user';
 import { InitialSchema1764626400000 } from './migrations/1764626400000-initial-schema';
 import { SessionUpdateLog1764630000000 } from './migrations/1764630000000-session-update-log';
 import { Renders1764640000000 } from './migrations/1764640000000-renders';
+import { RevokedTokens1764650000000 } from './migrations/1764650000000-revoked-tokens';
 
-export const ENTITIES = [User, Studio, Membership, Invitation, PasswordReset, Session, Preset, SessionUpdate, Render];
-export const MIGRATIONS = [InitialSchema1764626400000, SessionUpdateLog1764630000000, Renders1764640000000];
+export const ENTITIES = [User, Studio, Membership, Invitation, PasswordReset, Session, Preset, SessionUpdate, Render, RevokedToken];
+export const MIGRATIONS = [InitialSchema1764626400000, SessionUpdateLog1764630000000, Renders1764640000000, RevokedTokens1764650000000];
 
 /**
  * The SQLite database through TypeORM (better-sqlite3): WAL journal, foreign keys on, schema from

@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import { Router, type Response } from 'express';
 import { IsNull } from 'typeorm';
 import { acceptInvitationBody, inviteBody } from '../../shared/api/schemas';
 import { fieldIssue } from '../../shared/patch/field-issue';
@@ -15,6 +15,7 @@ import { ApiError, conflict, invalidFields, notFound } from '../http/api-error';
 import { parseInput } from '../http/parse-input';
 import { invitationMail } from '../mail/message-templates';
 import { requireStrongPassword } from './auth-routes';
+import { accountCounter, tooManyAttempts } from './rate-limits';
 import { userView } from './user-view';
 
 function invitationView(invitation: Invitation) {
@@ -32,9 +33,15 @@ export function invitationRoutes(context: AppContext): Router {
   const router = Router();
   const invitations = () => context.dataSource.getRepository(Invitation);
   router.use('/studios/:studioId/invitations', requireUser(context));
+  // Invitation e-mails per studio and address, however they are asked for (new, repeated, resent).
+  const invitationMails = accountCounter(context, 'invitationMails');
 
   /** Makes a fresh token for an invitation, stores its hash and a new expiry, and e-mails the link. */
-  async function sendInvitation(invitation: Invitation, inviter: User): Promise<Invitation> {
+  async function sendInvitation(invitation: Invitation, inviter: User, response: Response): Promise<Invitation> {
+    const mailKey = `${invitation.studioId} ${invitation.email}`;
+    const waitS = invitationMails.retryAfterS(mailKey);
+    if (waitS > 0) throw tooManyAttempts(response, waitS, `Too many invitation e-mails to ${invitation.email}`, 'email');
+    invitationMails.record(mailKey);
     const { token, tokenHash } = newSecretToken();
     const now = context.clock();
     const expiresAt = new Date(now.getTime() + context.config.invitationLifetimeS * 1000);
@@ -61,7 +68,7 @@ export function invitationRoutes(context: AppContext): Router {
     }
     const open = await invitations().findOneBy({ studioId: own.studioId, email, acceptedAt: IsNull(), revokedAt: IsNull() });
     const draft = open ? { ...open, role } : invitations().create({ studioId: own.studioId, email, role, invitedById: user.id, acceptedAt: null, revokedAt: null });
-    const invitation = await sendInvitation(draft as Invitation, user);
+    const invitation = await sendInvitation(draft as Invitation, user, response);
     response.status(open ? 200 : 201).json({ invitation: invitationView(invitation) });
   });
 
@@ -74,7 +81,7 @@ export function invitationRoutes(context: AppContext): Router {
   router.post('/studios/:studioId/invitations/:invitationId/resend', async (request, response) => {
     const user = currentUser(request);
     const own = await requireAccess(context.dataSource, user.id, request.params.studioId, 'manageMembers');
-    const invitation = await sendInvitation(await pendingInvitation(own.studioId, request.params.invitationId), user);
+    const invitation = await sendInvitation(await pendingInvitation(own.studioId, request.params.invitationId), user, response);
     response.json({ invitation: invitationView(invitation) });
   });
 

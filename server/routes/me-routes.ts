@@ -1,5 +1,5 @@
 import { In } from 'typeorm';
-import { Router } from 'express';
+import { Router, type Response } from 'express';
 import { changePasswordBody, deleteAccountBody, updateProfileBody } from '../../shared/api/schemas';
 import type { AppContext } from '../app-context';
 import { clearAuthCookie, currentUser, issueAuthCookie, requireUser } from '../auth/authenticate';
@@ -12,12 +12,22 @@ import { ApiError, conflict } from '../http/api-error';
 import { parseInput } from '../http/parse-input';
 import { requireStrongPassword } from './auth-routes';
 import { leadCount, studiosOf } from './membership-queries';
+import { accountCounter, tooManyAttempts } from './rate-limits';
 import { userView } from './user-view';
 
 export function meRoutes(context: AppContext): Router {
   const router = Router();
   const users = () => context.dataSource.getRepository(User);
   router.use('/me', requireUser(context));
+  // Wrong current passwords per account (password change and account deletion share the count).
+  const passwordChecks = accountCounter(context, 'passwordChecks');
+  const checkPassword = async (user: User, password: string, response: Response, field: string): Promise<boolean> => {
+    const waitS = passwordChecks.retryAfterS(user.id);
+    if (waitS > 0) throw tooManyAttempts(response, waitS, 'Too many wrong passwords for this account', field);
+    const valid = await verifyPassword(password, user.passwordHash);
+    if (!valid) passwordChecks.record(user.id);
+    return valid;
+  };
 
   router.get('/me', async (request, response) => {
     const user = currentUser(request);
@@ -34,7 +44,7 @@ export function meRoutes(context: AppContext): Router {
   router.post('/me/password', async (request, response) => {
     const user = currentUser(request);
     const body = parseInput(changePasswordBody, request.body);
-    if (!(await verifyPassword(body.currentPassword, user.passwordHash))) {
+    if (!(await checkPassword(user, body.currentPassword, response, 'currentPassword'))) {
       throw new ApiError(400, 'invalid', 'currentPassword is wrong', 'currentPassword');
     }
     requireStrongPassword(body.newPassword, user.email, 'newPassword');
@@ -48,7 +58,7 @@ export function meRoutes(context: AppContext): Router {
   router.delete('/me', async (request, response) => {
     const user = currentUser(request);
     const { password } = parseInput(deleteAccountBody, request.body);
-    if (!(await verifyPassword(password, user.passwordHash))) throw new ApiError(400, 'invalid', 'password is wrong', 'password');
+    if (!(await checkPassword(user, password, response, 'password'))) throw new ApiError(400, 'invalid', 'password is wrong', 'password');
     const goneRenders = await context.dataSource.transaction(async (manager) => {
       const leads = await manager.getRepository(Membership).findBy({ userId: user.id, role: 'lead' });
       const blocking: string[] = [];
