@@ -5,6 +5,7 @@ import type { AppContext } from './app-context';
 import { CollabHub } from './collab/collab-hub';
 import { typeormCollabStorage } from './collab/collab-storage';
 import { COLLAB_PATH, collabUpgradeHandler } from './collab/collab-upgrade';
+import { attachCollabAccessGuard } from './collab/live-access-guard';
 import { attachComputeChannel } from './compute/compute-channel';
 import { isOriginAllowed } from './http/request-origin';
 import { attachRenderChannel } from './renders/render-channel';
@@ -47,6 +48,7 @@ export function createTautlineServer(context: AppContext, options: AppOptions & 
   const renders = (context.renders ??= new RenderService(context));
   const stopRenderChannel = attachRenderChannel(compute.io, context, renders);
   const collabUpgrade = collabUpgradeHandler(context, hub);
+  const stopCollabGuard = attachCollabAccessGuard(context, hub);
   server.on('upgrade', (request, socket, head) => {
     const path = request.url ?? '';
     if (path.startsWith('/socket.io/')) return; // socket.io answers its own upgrades (and checks Origin in allowRequest)
@@ -72,6 +74,7 @@ export function createTautlineServer(context: AppContext, options: AppOptions & 
       }),
     close: async () => {
       stopRenderChannel();
+      stopCollabGuard();
       await renders.close();
       await hub.close();
       server.closeAllConnections?.();

@@ -1,6 +1,7 @@
 import { EventEmitter } from 'node:events';
 import type { WebSocket } from 'ws';
 import type { Patch } from '../../shared/patch/patch-schema';
+import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES } from '../../shared/protocol/live-access';
 import { CollabRoom, type Connection } from './collab-room';
 import type { CollabStorage } from './collab-storage';
 
@@ -81,8 +82,9 @@ export class CollabHub extends EventEmitter {
    * Takes a websocket that passed authentication. Messages are listened for at once and buffered
    * until the room has loaded, then replayed in order.
    */
-  connect(sessionId: string, socket: WebSocket, who: { userId: string; readOnly: boolean }): void {
-    const connection: Connection = { socket, userId: who.userId, readOnly: who.readOnly, awarenessIds: new Set(), toldReadOnly: false };
+  connect(sessionId: string, socket: WebSocket, who: { userId: string; readOnly: boolean } & Pick<Connection, 'token' | 'studioId' | 'role'>): void {
+    const connection: Connection = { ...who, socket, awarenessIds: new Set(), toldReadOnly: false };
+    if (this.deleting.has(sessionId)) return void socket.close(LIVE_CLOSE_CODES.sessionDeleted, LIVE_ACCESS_MESSAGES['session-deleted']);
     const buffered: Uint8Array[] = [];
     let room: CollabRoom | null = null;
     this.alive.set(socket, true);
@@ -101,6 +103,7 @@ export class CollabHub extends EventEmitter {
     socket.on('error', () => socket.terminate());
     this.openRoom(sessionId).then(
       (opened) => {
+        if (this.deleting.has(sessionId)) socket.close(LIVE_CLOSE_CODES.sessionDeleted, LIVE_ACCESS_MESSAGES['session-deleted']);
         if (socket.readyState !== socket.OPEN) {
           if (opened.connections.size === 0) void this.closeRoom(sessionId, opened);
           return;
@@ -129,6 +132,48 @@ export class CollabHub extends EventEmitter {
       await this.closing.get(sessionId);
       await resetStored();
     }
+  }
+
+  /** Sessions being deleted: no room opens for them, and nothing of theirs is written. */
+  private readonly deleting = new Set<string>();
+
+  /** Every live connection, with its session, that `concerns` picks. */
+  connectionsOf(concerns: (connection: Connection, sessionId: string) => boolean): Array<{ sessionId: string; room: CollabRoom; connection: Connection }> {
+    const found: Array<{ sessionId: string; room: CollabRoom; connection: Connection }> = [];
+    for (const [sessionId, room] of this.rooms) for (const connection of room.connections) if (concerns(connection, sessionId)) found.push({ sessionId, room, connection });
+    return found;
+  }
+
+  /**
+   * Before a session's rows are deleted: refuses new connections and stops writing its room, once
+   * writes already under way have finished. `resume` undoes it when the deletion fails.
+   */
+  async stopStoring(sessionId: string): Promise<{ resume: () => void }> {
+    this.deleting.add(sessionId);
+    await this.closing.get(sessionId);
+    const room = this.rooms.get(sessionId);
+    await room?.stopStoring();
+    return {
+      resume: () => {
+        this.deleting.delete(sessionId);
+        room?.resumeStoring();
+      },
+    };
+  }
+
+  /**
+   * Closes a deleted session's room: every connection is closed with `code` and `reason`, and the
+   * document is freed without writing anything (the rows are gone).
+   */
+  async closeSession(sessionId: string, code: number, reason: string): Promise<void> {
+    this.deleting.add(sessionId);
+    const room = this.rooms.get(sessionId);
+    if (!room) return;
+    this.rooms.delete(sessionId);
+    const stopped = room.stopStoring();
+    for (const connection of [...room.connections]) room.disconnect(connection, code, reason);
+    await stopped;
+    await room.close();
   }
 
   /** Closes every connection and writes every room (server shutdown). */

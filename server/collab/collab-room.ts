@@ -8,6 +8,7 @@ import * as syncProtocol from 'y-protocols/sync';
 import * as Y from 'yjs';
 import { writePatchToDoc, validatedPatchFromDoc } from '../../shared/collab/patch-doc';
 import type { Patch } from '../../shared/patch/patch-schema';
+import type { Role } from '../../shared/access/roles';
 import type { CollabStorage } from './collab-storage';
 
 /** y-websocket's message types. */
@@ -31,6 +32,11 @@ export interface Connection {
   /** Awareness client ids this connection introduced, removed when it closes. */
   awarenessIds: Set<number>;
   toldReadOnly: boolean;
+  /** The token the connection was opened with, checked again on every access change (live-access-guard.ts). */
+  token?: string;
+  /** The studio of the session, and the role the connection was given (or last checked with). */
+  studioId?: string;
+  role?: Role;
 }
 
 /**
@@ -51,6 +57,8 @@ export class CollabRoom extends EventEmitter {
   private patchTimer: NodeJS.Timeout | null = null;
   private lastWriter: string | null = null;
   private closed = false;
+  /** Set once the session is being deleted: nothing more is written (see stopStoring). */
+  private storingStopped = false;
 
   constructor(
     readonly sessionId: string,
@@ -111,7 +119,7 @@ export class CollabRoom extends EventEmitter {
     this.flushTimer = null;
     const batch = this.pending;
     this.pending = [];
-    if (batch.length > 0) {
+    if (batch.length > 0 && !this.storingStopped) {
       this.writes = this.writes
         // One row per flush: the batch merged into a single update (Yjs merges without loss).
         .then(() => this.storage.append(this.sessionId, [batch.length === 1 ? batch[0] : Y.mergeUpdates(batch)]))
@@ -139,6 +147,7 @@ export class CollabRoom extends EventEmitter {
 
   private async refreshPatch(): Promise<void> {
     this.patchTimer = null;
+    if (this.storingStopped) return;
     const result = validatedPatchFromDoc(this.doc);
     if (!result.ok) return;
     await this.storage.savePatch(this.sessionId, result.value, this.lastWriter).catch((error: Error) => this.log(`collab: could not refresh patch: ${error.message}`));
@@ -223,9 +232,51 @@ export class CollabRoom extends EventEmitter {
     this.closed = true;
     if (this.patchTimer) clearTimeout(this.patchTimer);
     await this.ready.catch(() => undefined);
-    await this.refreshPatch();
-    await this.compact();
+    if (!this.storingStopped) {
+      await this.refreshPatch();
+      await this.compact();
+    }
     this.awareness.destroy();
     this.doc.destroy();
+  }
+
+  /**
+   * Makes a connection read-only (or writable) from now on. Going read-only, it is sent the
+   * y-websocket auth message `permission denied` with the reason, and its later writes are dropped.
+   */
+  setReadOnly(connection: Connection, readOnly: boolean, reason: string): void {
+    if (connection.readOnly === readOnly) return;
+    connection.readOnly = readOnly;
+    connection.toldReadOnly = readOnly;
+    if (!readOnly) return;
+    const denied = encoding.createEncoder();
+    encoding.writeVarUint(denied, MESSAGE_AUTH);
+    authProtocol.writePermissionDenied(denied, reason);
+    this.send(connection, encoding.toUint8Array(denied));
+  }
+
+  /** Closes one connection with an application close code and a reason (at most 123 bytes). */
+  disconnect(connection: Connection, code: number, reason: string): void {
+    if (connection.socket.readyState === connection.socket.OPEN) connection.socket.close(code, reason);
+    this.removeConnection(connection);
+  }
+
+  /**
+   * Stops writing this session for good (it is about to be deleted): pending edits are dropped, and
+   * the returned promise settles once any write already under way has finished, so no write reaches
+   * the database after the session's rows are gone. `resume` undoes it if the deletion fails.
+   */
+  async stopStoring(): Promise<void> {
+    this.storingStopped = true;
+    if (this.flushTimer) clearTimeout(this.flushTimer);
+    if (this.patchTimer) clearTimeout(this.patchTimer);
+    this.flushTimer = null;
+    this.patchTimer = null;
+    this.pending = [];
+    await this.writes;
+  }
+
+  resumeStoring(): void {
+    this.storingStopped = false;
   }
 }

@@ -1,12 +1,10 @@
 import type { IncomingMessage } from 'node:http';
 import type { Duplex } from 'node:stream';
 import { WebSocketServer } from 'ws';
-import { can } from '../../shared/access/roles';
 import { LIMITS } from '../../shared/limits';
 import type { AppContext } from '../app-context';
-import { tokenFromCookieHeader, userFromToken } from '../auth/authenticate';
-import { Membership } from '../db/entities/membership';
-import { Session } from '../db/entities/session';
+import { tokenFromCookieHeader } from '../auth/authenticate';
+import { AccessLookup } from '../access/live-access-decision';
 import type { CollabHub } from './collab-hub';
 
 export const COLLAB_PATH = '/collab/';
@@ -25,13 +23,12 @@ export async function authorizeCollabUpgrade(context: AppContext, request: Incom
   const url = new URL(request.url ?? '/', 'http://localhost');
   const sessionId = decodeURIComponent(url.pathname.slice(COLLAB_PATH.length));
   const token = url.searchParams.get('token') ?? tokenFromCookieHeader(request.headers.cookie);
-  const found = token ? await userFromToken(context, token) : null;
-  if (!found) return { ok: false as const, status: 401, reason: 'Unauthorized' };
-  const session = sessionId ? await context.dataSource.getRepository(Session).findOne({ where: { id: sessionId }, select: { id: true, studioId: true, archived: true } }) : null;
-  const membership = session ? await context.dataSource.getRepository(Membership).findOneBy({ userId: found.user.id, studioId: session.studioId }) : null;
-  if (!session || !membership) return { ok: false as const, status: 404, reason: 'Not Found' };
-  if (session.archived) return { ok: false as const, status: 410, reason: 'Gone' };
-  return { ok: true as const, sessionId, userId: found.user.id, role: membership.role, readOnly: !can(membership.role, 'editSessions') };
+  // The same decision as every later re-check of the open connection (live-access-guard.ts).
+  const access = token ? await new AccessLookup(context).sessionAccess(token, sessionId) : null;
+  if (!token || !access || (!access.ok && access.reason === 'signed-out')) return { ok: false as const, status: 401, reason: 'Unauthorized' };
+  if (!access.ok) return { ok: false as const, status: 404, reason: 'Not Found' };
+  if (access.archived) return { ok: false as const, status: 410, reason: 'Gone' };
+  return { ok: true as const, sessionId, token, userId: access.userId, studioId: access.studioId, role: access.role, readOnly: access.readOnly };
 }
 
 /** Routes `upgrade` requests under /collab/ to the document hub, after checking who asks. */
@@ -42,7 +39,7 @@ export function collabUpgradeHandler(context: AppContext, hub: CollabHub) {
     authorizeCollabUpgrade(context, request).then(
       (decision) => {
         if (!decision.ok) return refuse(socket, decision.status, decision.reason);
-        wss.handleUpgrade(request, socket, head, (ws) => hub.connect(decision.sessionId, ws, { userId: decision.userId, readOnly: decision.readOnly }));
+        wss.handleUpgrade(request, socket, head, (ws) => hub.connect(decision.sessionId, ws, { userId: decision.userId, readOnly: decision.readOnly, token: decision.token, studioId: decision.studioId, role: decision.role }));
       },
       (error: Error) => {
         context.log(`collab: upgrade failed: ${error.message}`);

@@ -1,7 +1,10 @@
 import type { Server as HttpServer } from 'node:http';
 import { availableParallelism } from 'node:os';
 import { Server as SocketServer, type Socket } from 'socket.io';
-import { can } from '../../shared/access/roles';
+import type { Role } from '../../shared/access/roles';
+import { LIVE_ACCESS_MESSAGES, SESSION_NOTICE_EVENT, type LiveAccessEndReason, type SessionNotice } from '../../shared/protocol/live-access';
+import { AccessLookup } from '../access/live-access-decision';
+import { LIVE_ACCESS_SWEEP_MS } from '../collab/live-access-guard';
 import { validatedPatchFromDoc } from '../../shared/collab/patch-doc';
 import { LIMITS } from '../../shared/limits';
 import { validatePatch } from '../../shared/patch/validate-patch';
@@ -18,12 +21,21 @@ import type { AppContext } from '../app-context';
 import { tokenFromCookieHeader, userFromToken } from '../auth/authenticate';
 import { isOriginAllowed } from '../http/request-origin';
 import type { CollabHub } from '../collab/collab-hub';
-import { Membership } from '../db/entities/membership';
 import { Session } from '../db/entities/session';
 import { ComputeScheduler } from './compute-scheduler';
 import { ComputeWorker } from './compute-worker';
 
 const roomOf = (sessionId: string) => `session:${sessionId}`;
+
+/** A session a socket follows, as last decided. */
+interface SubscribedSession {
+  studioId: string;
+  readOnly: boolean;
+  role: Role;
+}
+
+const socketToken = (socket: Socket): string => socket.data.token as string;
+const subscribedOf = (socket: Socket): Map<string, SubscribedSession> => socket.data.sessions as Map<string, SubscribedSession>;
 
 interface SessionCompute {
   scheduler: ComputeScheduler;
@@ -59,6 +71,9 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
       (found) => {
         if (!found) return next(new Error('unauthenticated'));
         socket.data.userId = found.user.id;
+        // Kept to check again on every access change (see recheckSockets below).
+        socket.data.token = raw;
+        socket.data.sessions = new Map<string, SubscribedSession>();
         next();
       },
       () => next(new Error('unauthenticated')),
@@ -114,11 +129,11 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
       try {
         const sessionId = typeof request?.sessionId === 'string' ? request.sessionId : '';
         if (request?.protocolVersion !== PROTOCOL_VERSION) return refuse(sessionId, 'protocol', `protocol version ${PROTOCOL_VERSION} is required`);
-        const session = await context.dataSource.getRepository(Session).findOne({ where: { id: sessionId }, select: { id: true, studioId: true } });
-        const membership = session ? await context.dataSource.getRepository(Membership).findOneBy({ userId: socket.data.userId, studioId: session.studioId }) : null;
-        if (!session || !membership) return refuse(sessionId, 'not_found', 'Session not found');
+        const access = await new AccessLookup(context).sessionAccess(socketToken(socket), sessionId);
+        if (!access.ok) return access.reason === 'signed-out' ? refuse(sessionId, 'unauthenticated', LIVE_ACCESS_MESSAGES['signed-out']) : refuse(sessionId, 'not_found', 'Session not found');
         await socket.join(roomOf(sessionId));
-        socket.emit(COMPUTE_EVENTS.joined, { type: 'joined', sessionId, role: membership.role, readOnly: !can(membership.role, 'editSessions') } satisfies JoinedMessage);
+        subscribedOf(socket).set(sessionId, { studioId: access.studioId, readOnly: access.readOnly, role: access.role });
+        socket.emit(COMPUTE_EVENTS.joined, { type: 'joined', sessionId, role: access.role, readOnly: access.readOnly } satisfies JoinedMessage);
         const entry = computeFor(sessionId);
         if (entry.latest && !entry.scheduler.busy) socket.emit(entry.latest.type === 'result' ? COMPUTE_EVENTS.result : COMPUTE_EVENTS.invalid, entry.latest);
         else entry.scheduler.schedule();
@@ -128,9 +143,82 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
     });
 
     socket.on(COMPUTE_EVENTS.unsubscribe, (request: { sessionId?: unknown }) => {
-      if (typeof request?.sessionId === 'string') void socket.leave(roomOf(request.sessionId));
+      if (typeof request?.sessionId !== 'string') return;
+      subscribedOf(socket).delete(request.sessionId);
+      void socket.leave(roomOf(request.sessionId));
     });
   });
+
+  const notify = (socket: Socket, notice: SessionNotice) => socket.emit(SESSION_NOTICE_EVENT, notice);
+  const endAccess = (socket: Socket, sessionId: string, reason: LiveAccessEndReason) => {
+    notify(socket, { kind: 'access-ended', sessionId, reason, message: LIVE_ACCESS_MESSAGES[reason] });
+    subscribedOf(socket).delete(sessionId);
+    void socket.leave(roomOf(sessionId));
+  };
+
+  /** The latest check of each socket; an older check finishing later is ignored. */
+  const latestCheck = new WeakMap<Socket, number>();
+  let checks = 0;
+
+  /**
+   * Decides again, for each socket, whether its token is still good and what it may do in each
+   * session it follows; a void token ends with a notice per session and a disconnect.
+   */
+  async function recheckSockets(sockets: Socket[], userGone: boolean): Promise<void> {
+    const lookup = new AccessLookup(context);
+    await Promise.all(
+      sockets.map(async (socket) => {
+        const check = ++checks;
+        latestCheck.set(socket, check);
+        const subscribed = subscribedOf(socket);
+        const user = await lookup.user(socketToken(socket));
+        const decisions = user ? await Promise.all([...subscribed].map(async ([sessionId, known]) => ({ sessionId, known, access: await lookup.sessionAccess(socketToken(socket), sessionId, known.studioId) }))) : [];
+        if (latestCheck.get(socket) !== check || !socket.connected) return;
+        if (!user) {
+          for (const sessionId of [...subscribed.keys()]) endAccess(socket, sessionId, userGone ? 'account-deleted' : 'signed-out');
+          return void socket.disconnect(true);
+        }
+        for (const { sessionId, known, access } of decisions) {
+          if (!subscribed.has(sessionId)) continue;
+          if (!access.ok) {
+            endAccess(socket, sessionId, access.reason === 'unknown' ? 'removed' : access.reason);
+            continue;
+          }
+          if (access.readOnly === known.readOnly) continue;
+          known.readOnly = access.readOnly;
+          if (access.readOnly) {
+            const reason = access.archived ? 'archived' : 'role';
+            notify(socket, { kind: 'read-only', sessionId, reason, message: reason === 'archived' ? LIVE_ACCESS_MESSAGES.readOnlyArchived : LIVE_ACCESS_MESSAGES.readOnlyRole });
+          } else {
+            notify(socket, { kind: 'writable', sessionId, message: known.role === access.role ? LIVE_ACCESS_MESSAGES.writableRestored : LIVE_ACCESS_MESSAGES.writableRole });
+          }
+          known.role = access.role;
+        }
+      }),
+    );
+  }
+
+  const report = (error: Error) => context.log(`compute: access check failed: ${error.message}`);
+  const allSockets = () => [...io.of('/').sockets.values()];
+  const stopAccess = context.access.subscribe((change) => {
+    const userGone = change.kind === 'user' && change.reason === 'account-deleted';
+    const concerned = allSockets().filter((socket) => {
+      if (change.kind === 'user' || change.kind === 'membership') return socket.data.userId === change.userId;
+      if (change.kind === 'session') return subscribedOf(socket).has(change.sessionId);
+      return [...subscribedOf(socket).values()].some((known) => known.studioId === change.studioId);
+    });
+    if (change.kind === 'session' && change.reason === 'deleted') {
+      for (const socket of concerned) endAccess(socket, change.sessionId, 'session-deleted');
+      return;
+    }
+    recheckSockets(concerned, userGone).catch(report);
+  });
+  const sweep = setInterval(() => void recheckSockets(allSockets(), false).catch(report), LIVE_ACCESS_SWEEP_MS);
+  sweep.unref();
+
+  // Notices the document hub raises (edits not being stored, stored again) go to the session's subscribers.
+  const onNotice = (notice: SessionNotice) => void io.to(roomOf(notice.sessionId)).emit(SESSION_NOTICE_EVENT, notice);
+  hub.on('notice', onNotice);
 
   // Forget a session's compute state when its last subscriber leaves.
   io.of('/').adapter.on('delete-room', (room: string) => {
@@ -141,6 +229,9 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
     io,
     close: async () => {
       hub.off('change', onChange);
+      hub.off('notice', onNotice);
+      stopAccess();
+      clearInterval(sweep);
       await new Promise<void>((resolve) => io.close(() => resolve()));
       await Promise.all(workers.map((worker) => worker.close()));
     },

@@ -1,10 +1,14 @@
 import type { Server as SocketServer, Socket } from 'socket.io';
 import { RENDER_EVENTS, type RenderRefusedMessage, type RenderSubscribeRequest } from '../../shared/protocol/render-protocol';
+import { LIVE_ACCESS_MESSAGES } from '../../shared/protocol/live-access';
+import { AccessLookup } from '../access/live-access-decision';
 import type { AppContext } from '../app-context';
+import { LIVE_ACCESS_SWEEP_MS } from '../collab/live-access-guard';
 import { Membership } from '../db/entities/membership';
 import type { RenderService } from './render-service';
 
-const roomOf = (studioId: string) => `renders:${studioId}`;
+const ROOM_PREFIX = 'renders:';
+const roomOf = (studioId: string) => `${ROOM_PREFIX}${studioId}`;
 
 /**
  * The renders channel on the app's socket.io server: a member subscribes to their studio and is
@@ -31,5 +35,48 @@ export function attachRenderChannel(io: SocketServer, context: AppContext, servi
       if (typeof request?.studioId === 'string') void socket.leave(roomOf(request.studioId));
     });
   });
-  return stop;
+
+  const studiosOf = (socket: Socket) => [...socket.rooms].filter((room) => room.startsWith(ROOM_PREFIX)).map((room) => room.slice(ROOM_PREFIX.length));
+  /** The latest check of each socket; an older check finishing later is ignored. */
+  const latestCheck = new WeakMap<Socket, number>();
+  let checks = 0;
+
+  /** Checks each socket's studios again; a studio it may no longer follow is left, with a `refused` message saying why. */
+  async function recheck(sockets: Socket[]): Promise<void> {
+    const lookup = new AccessLookup(context);
+    await Promise.all(
+      sockets.map(async (socket) => {
+        const check = ++checks;
+        latestCheck.set(socket, check);
+        const token = socket.data.token as string | undefined;
+        if (token === undefined) return;
+        const decisions = await Promise.all(studiosOf(socket).map(async (studioId) => ({ studioId, access: await lookup.studioAccess(token, studioId) })));
+        if (latestCheck.get(socket) !== check) return;
+        for (const { studioId, access } of decisions) {
+          if (access.ok) continue;
+          const refused: RenderRefusedMessage = access.reason === 'signed-out'
+            ? { type: 'refused', studioId, code: 'unauthenticated', message: LIVE_ACCESS_MESSAGES['signed-out'] }
+            : { type: 'refused', studioId, code: 'not_found', message: LIVE_ACCESS_MESSAGES.removed };
+          socket.emit(RENDER_EVENTS.refused, refused);
+          void socket.leave(roomOf(studioId));
+        }
+      }),
+    );
+  }
+
+  const report = (error: Error) => context.log(`renders: access check failed: ${error.message}`);
+  const stopAccess = context.access.subscribe((change) => {
+    if (change.kind === 'session') return; // sessions do not change who follows a studio's renders
+    const concerned = [...io.of('/').sockets.values()].filter((socket) =>
+      change.kind === 'studio' ? socket.rooms.has(roomOf(change.studioId)) : socket.data.userId === change.userId && (change.kind === 'user' || socket.rooms.has(roomOf(change.studioId))),
+    );
+    recheck(concerned).catch(report);
+  });
+  const sweep = setInterval(() => void recheck([...io.of('/').sockets.values()]).catch(report), LIVE_ACCESS_SWEEP_MS);
+  sweep.unref();
+  return () => {
+    stop();
+    stopAccess();
+    clearInterval(sweep);
+  };
 }

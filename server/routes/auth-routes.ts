@@ -105,6 +105,8 @@ export function authRoutes(context: AppContext): Router {
       if (used.affected !== 1) throw new ApiError(400, 'invalid', 'This reset link is invalid, used or expired; ask for a new one', 'token');
       await manager.update(User, { id: user.id }, { passwordHash, tokenVersion: user.tokenVersion + 1 });
     });
+    // Committed: live connections opened with an older token close now.
+    context.access.publish({ kind: 'user', userId: user.id, reason: 'password-changed' });
     response.json({ ok: true });
   });
 

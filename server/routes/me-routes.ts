@@ -50,6 +50,8 @@ export function meRoutes(context: AppContext): Router {
     requireStrongPassword(body.newPassword, user.email, 'newPassword');
     const updated = { ...user, passwordHash: await hashPassword(body.newPassword, context.config.passwordHashCost), tokenVersion: user.tokenVersion + 1 };
     await users().update({ id: user.id }, { passwordHash: updated.passwordHash, tokenVersion: updated.tokenVersion });
+    // Committed: live connections opened with an older token close now.
+    context.access.publish({ kind: 'user', userId: user.id, reason: 'password-changed' });
     // Other devices are signed out (their tokens carry the old version); this one gets a fresh cookie.
     const token = issueAuthCookie(context, response, updated as User);
     response.json({ ok: true, token });
@@ -59,7 +61,7 @@ export function meRoutes(context: AppContext): Router {
     const user = currentUser(request);
     const { password } = parseInput(deleteAccountBody, request.body);
     if (!(await checkPassword(user, password, response, 'password'))) throw new ApiError(400, 'invalid', 'password is wrong', 'password');
-    const goneRenders = await context.dataSource.transaction(async (manager) => {
+    const gone = await context.dataSource.transaction(async (manager) => {
       const leads = await manager.getRepository(Membership).findBy({ userId: user.id, role: 'lead' });
       const blocking: string[] = [];
       const soleMemberStudios: string[] = [];
@@ -75,10 +77,13 @@ export function meRoutes(context: AppContext): Router {
       const renders = soleMemberStudios.length > 0 ? await manager.getRepository(Render).findBy({ studioId: In(soleMemberStudios) }) : [];
       for (const studioId of soleMemberStudios) await manager.delete(Studio, { id: studioId });
       await manager.delete(User, { id: user.id });
-      return renders;
+      return { renders, soleMemberStudios };
     });
+    // Committed: the studios' live rooms close first (nothing more is written to them), then the account's connections.
+    for (const studioId of gone.soleMemberStudios) context.access.publish({ kind: 'studio', studioId, reason: 'deleted' });
+    context.access.publish({ kind: 'user', userId: user.id, reason: 'account-deleted' });
     // The studios' render rows went with them (cascade); their files and running jobs go now.
-    await context.renders?.discard(goneRenders);
+    await context.renders?.discard(gone.renders);
     clearAuthCookie(context, response);
     response.status(204).end();
   });

@@ -22,12 +22,15 @@ export function memberRoutes(context: AppContext): Router {
   router.patch('/studios/:studioId/members/:userId', async (request, response) => {
     const own = await requireAccess(context.dataSource, currentUser(request).id, request.params.studioId, 'manageMembers');
     const { role } = parseInput(changeRoleBody, request.body);
-    await context.dataSource.transaction(async (manager) => {
+    const changed = await context.dataSource.transaction(async (manager) => {
       const target = await manager.getRepository(Membership).findOneBy({ studioId: own.studioId, userId: request.params.userId });
       if (!target) throw notFound('Member');
       if (target.role === 'lead' && role !== 'lead' && (await leadCount(manager, own.studioId)) <= 1) throw conflict(LAST_LEAD, 'role');
       await manager.update(Membership, { id: target.id }, { role });
+      return target.role !== role;
     });
+    // Committed: the member's open live connections take the new role now.
+    if (changed) context.access.publish({ kind: 'membership', studioId: own.studioId, userId: request.params.userId });
     response.json({ members: await membersOf(context.dataSource, own.studioId) });
   });
 
@@ -44,6 +47,8 @@ export function memberRoutes(context: AppContext): Router {
       if (target.role === 'lead' && (await leadCount(manager, own.studioId)) <= 1) throw conflict(LAST_LEAD);
       await manager.delete(Membership, { id: target.id });
     });
+    // Committed: the member's open live connections to the studio close now.
+    context.access.publish({ kind: 'membership', studioId: own.studioId, userId: request.params.userId });
     response.status(204).end();
   });
 

@@ -115,8 +115,12 @@ export function sessionRoutes(context: AppContext): Router {
     if (body.name !== undefined || body.archived !== undefined) {
       await sessions().update(
         { id: session.id },
-        { ...(body.name !== undefined ? { name: body.name } : {}), ...(body.archived !== undefined ? { archived: body.archived } : {}), updatedById: user.id, updatedAt: new Date() },
+        { ...(body.name !== undefined ? { name: body.name } : {}), ...(body.archived !== undefined ? { archived: body.archived } : {}), updatedById: user.id, updatedAt: context.clock() },
       );
+    }
+    // Committed: people in the session become read-only (archived) or may edit again (restored).
+    if (body.archived !== undefined && body.archived !== session.archived) {
+      context.access.publish({ kind: 'session', sessionId: session.id, studioId: session.studioId, reason: body.archived ? 'archived' : 'restored' });
     }
     if (patch) await replaceSessionPatch(context, session.id, patch, user.id);
     response.json({ session: await view(await sessions().findOneByOrFail({ id: session.id }), true) });
@@ -136,7 +140,15 @@ export function sessionRoutes(context: AppContext): Router {
   router.delete('/sessions/:id', async (request, response) => {
     const { session, membership } = await sessionFor(currentUser(request).id, request.params.id);
     requirePermission(membership, 'deleteSessions');
-    await sessions().delete({ id: session.id });
+    // The live document stops writing first, so nothing reaches the database after its rows are gone.
+    const live = await context.collab?.stopStoring(session.id);
+    try {
+      await sessions().delete({ id: session.id });
+    } catch (error) {
+      live?.resume();
+      throw error;
+    }
+    context.access.publish({ kind: 'session', sessionId: session.id, studioId: session.studioId, reason: 'deleted' });
     response.status(204).end();
   });
 

@@ -32,4 +32,29 @@ export type SessionNotice =
   /** The server cannot store the session's edits right now (e.g. the database is read-only). */
   | { kind: 'not-saving'; sessionId: string; message: string }
   /** Edits are being stored again. */
-  | { kind: 'saving'; sessionId: string };
+  | { kind: 'saving'; sessionId: string }
+  /** This connection no longer reaches the session: the socket leaves it (and, for a void token, disconnects). */
+  | { kind: 'access-ended'; sessionId: string; reason: LiveAccessEndReason; message: string };
+
+/** Why someone's live access to a session ended. */
+export type LiveAccessEndReason = 'removed' | 'signed-out' | 'account-deleted' | 'session-deleted';
+
+/**
+ * What the person is told, for each way access ends or narrows. Each fits a websocket close reason
+ * (at most 123 bytes of UTF-8, RFC 6455 §5.5.1); a test checks it.
+ */
+export const LIVE_ACCESS_MESSAGES = {
+  removed: 'You are no longer a member of this studio',
+  'signed-out': 'You were signed out (password changed, signed out elsewhere, or the sign-in expired)',
+  'account-deleted': 'This account was deleted',
+  'session-deleted': 'This session was deleted',
+  readOnlyRole: 'Your role changed: you can watch and listen, but no longer edit',
+  readOnlyArchived: 'This session was archived: it is read-only until it is restored',
+  writableRole: 'Your role changed: you may edit this session',
+  writableRestored: 'This session was restored: you may edit it again',
+} as const;
+
+/** The close code and reason (for a websocket close frame) of each way access ends. */
+export function liveCloseFor(reason: LiveAccessEndReason): { code: LiveCloseCode; reason: string } {
+  return { code: reason === 'session-deleted' ? LIVE_CLOSE_CODES.sessionDeleted : LIVE_CLOSE_CODES.accessRevoked, reason: LIVE_ACCESS_MESSAGES[reason] };
+}

@@ -1,5 +1,6 @@
 import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { useQueryClient } from '@tanstack/react-query';
+import { Link, useLocation, useParams } from 'react-router-dom';
 import { patchDoc } from '../../../shared/collab/patch-doc';
 import { deletePoint, movePoint } from '../../../shared/collab/point-edits';
 import { Button } from '../../components/button';
@@ -9,6 +10,7 @@ import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
 import { SegmentedChoice } from '../../components/segmented-choice';
 import { useMe } from '../../features/auth/api/get-me';
+import { LiveSessionNotice } from '../../features/collab/components/live-session-notice';
 import { useSessionConnection } from '../../features/collab/hooks/use-session-connection';
 import { LossesPanel, PickupPanel, RenderPanel, StringPanel } from '../../features/editor/components/patch-panels';
 import { HandleFields } from '../../features/editor/components/handle-fields';
@@ -60,7 +62,14 @@ export default function SessionPage() {
   const session = useSession(sessionId);
   const presets = usePresets(session.data?.studioId ?? '');
   const name = me.data?.user.displayName ?? 'someone';
-  const { connection, snapshot } = useSessionConnection(sessionId, { name, colour: colourFor(name) });
+  const { connection, snapshot, reopen } = useSessionConnection(sessionId, { name, colour: colourFor(name) });
+  const location = useLocation();
+  const queryClient = useQueryClient();
+  const endedReason = snapshot?.accessEnded?.reason;
+  useEffect(() => {
+    // Signed out: ask who is signed in. A 401 clears it, and the signed-in layout returns to sign-in (with ?next=).
+    if (endedReason === 'signed-out' || endedReason === 'account-deleted') void queryClient.invalidateQueries({ queryKey: ['me'] });
+  }, [endedReason, queryClient]);
   const [canvasBox, widthPx] = useContainerWidth<HTMLDivElement>(800);
   const dark = useDarkTheme();
   const [selected, setSelected] = useState<CanvasSelection | null>(null);
@@ -157,7 +166,7 @@ export default function SessionPage() {
         </Button>
       </header>
 
-      {readOnly && <Notice tone="caution">You can watch and listen: your role ({snapshot.role}) does not edit sessions.</Notice>}
+      <LiveSessionNotice snapshot={snapshot} here={`${location.pathname}${location.search}`} studioHref={`/studios/${session.data.studioId}`} onReopen={reopen} />
 
       <section aria-label="People here" className="flex flex-wrap items-center gap-2 text-sm">
         <span className="font-semibold">Here:</span>

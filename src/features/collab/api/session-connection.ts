@@ -1,4 +1,5 @@
 import { io, type Socket } from 'socket.io-client';
+import * as authProtocol from 'y-protocols/auth';
 import { WebsocketProvider } from 'y-websocket';
 import * as Y from 'yjs';
 import { validatedPatchFromDoc } from '../../../../shared/collab/patch-doc';
@@ -13,6 +14,7 @@ import {
   type JoinedMessage,
   type RefusedMessage,
 } from '../../../../shared/protocol/compute-protocol';
+import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, SESSION_NOTICE_EVENT, type LiveAccessEndReason, type SessionNotice } from '../../../../shared/protocol/live-access';
 
 /** What a teammate shares about themselves while in a session. */
 export interface Presence {
@@ -32,6 +34,20 @@ export type ConnectionState = 'connecting' | 'connected' | 'reconnecting' | 'off
 /** The mode table and preview as the client keeps them (binary arrays as typed arrays). */
 export type ComputeResult = ComputeResultMessage<Float64Array, Float32Array>;
 
+/** Something the server told this person about the session that they should see (a change of rights, a refused edit, storage trouble). */
+export interface LiveNotice {
+  tone: 'info' | 'caution' | 'error';
+  message: string;
+}
+
+/** Why the live session ended for this person; it does not reconnect by itself. */
+export interface AccessEnded {
+  /** The websocket close code (LIVE_CLOSE_CODES) or, from the compute channel, the matching one. */
+  code: number;
+  reason: LiveAccessEndReason | 'closed';
+  message: string;
+}
+
 export interface SessionSnapshot {
   connection: ConnectionState;
   /** True once the document has synced with the server at least once. */
@@ -40,6 +56,8 @@ export interface SessionSnapshot {
   hasPendingEdits: boolean;
   role: Role | null;
   readOnly: boolean;
+  /** Why the server treats this connection as read-only, as it said (null when unsaid). */
+  readOnlyReason: string | null;
   refused: RefusedMessage | null;
   patch: Patch | null;
   patchIssues: FieldIssue[];
@@ -48,6 +66,10 @@ export interface SessionSnapshot {
   peers: Array<Presence & { clientId: number }>;
   canUndo: boolean;
   canRedo: boolean;
+  /** The latest thing the server told this person (null once there is nothing to say). */
+  notice: LiveNotice | null;
+  /** Set when the server ended this person's live access; the page shows why. */
+  accessEnded: AccessEnded | null;
 }
 
 export interface SessionConnectionOptions {
@@ -83,6 +105,15 @@ export function decodeComputeResult(message: ComputeResultMessage<ArrayBuffer | 
   };
 }
 
+/** y-websocket's message type for auth (permission denied). */
+const MESSAGE_AUTH = 2;
+
+/** Which way access ended, from a close reason's words (the close frame carries only text). */
+function endReasonOf(reason: string): LiveAccessEndReason {
+  const found = (Object.keys(LIVE_ACCESS_MESSAGES) as Array<keyof typeof LIVE_ACCESS_MESSAGES>).find((key) => LIVE_ACCESS_MESSAGES[key] === reason);
+  return found === 'signed-out' || found === 'account-deleted' || found === 'session-deleted' ? found : 'removed';
+}
+
 /** Edits closer together than this become one undo step (typing a number, nudging with the keys). */
 const CAPTURE_TIMEOUT_MS = 300;
 
@@ -113,11 +144,15 @@ function frameCoalescer(work: () => void): { request: () => void; cancel: () => 
  * undo and redo of one's own edits only, the connection state, and the latest mode table and
  * preview from the compute channel. Framework-free; `useSessionConnection` wraps it for React.
  */
+/** Close codes after which the provider must not simply reconnect: this class decides what follows. */
+const HANDLED_CLOSE_CODES: ReadonlySet<number> = new Set(Object.values(LIVE_CLOSE_CODES));
+
 export class SessionConnection {
-  readonly doc = new Y.Doc();
-  readonly provider: WebsocketProvider;
+  /** The document, its provider and undo manager are replaced when the server asks for a fresh start (see `resetDocument`). */
+  doc!: Y.Doc;
+  provider!: WebsocketProvider;
   readonly socket: Socket;
-  readonly undoManager: Y.UndoManager;
+  undoManager!: Y.UndoManager;
   /** The origin of this person's edits; only these are undone. */
   readonly localOrigin = Symbol('local-edit');
   private snapshot: SessionSnapshot;
@@ -133,6 +168,7 @@ export class SessionConnection {
       hasPendingEdits: false,
       role: null,
       readOnly: false,
+      readOnlyReason: null,
       refused: null,
       patch: null,
       patchIssues: [],
@@ -141,37 +177,10 @@ export class SessionConnection {
       peers: [],
       canUndo: false,
       canRedo: false,
+      notice: null,
+      accessEnded: null,
     };
-    const wsBase = `${options.baseUrl.replace(/^http/, 'ws').replace(/\/$/, '')}/collab`;
-    this.provider = new WebsocketProvider(wsBase, options.sessionId, this.doc, {
-      params: options.token ? { token: options.token } : {},
-      WebSocketPolyfill: options.WebSocketPolyfill,
-      disableBc: true,
-      maxBackoffTime: 2500,
-    });
-    this.provider.awareness.setLocalState({ ...options.presence, pointerXM: null, dragging: null } satisfies Presence);
-    this.undoManager = new Y.UndoManager(
-      ['meta', 'string', 'damping', 'pickup', 'render', 'displacement', 'velocity', 'extras'].map((key) =>
-        key === 'displacement' || key === 'velocity' ? this.doc.getArray(key) : this.doc.getMap(key),
-      ),
-      { trackedOrigins: new Set([this.localOrigin]), captureTimeout: CAPTURE_TIMEOUT_MS },
-    );
-
-    this.provider.on('status', ({ status }: { status: string }) => {
-      if (status === 'connected') this.everConnected = true;
-      const connection: ConnectionState = status === 'connected' ? 'connected' : this.everConnected ? 'reconnecting' : 'connecting';
-      this.update({ connection });
-    });
-    this.provider.on('sync', (synced: boolean) => this.update({ synced: this.snapshot.synced || synced, hasPendingEdits: !synced && this.snapshot.hasPendingEdits }));
-    this.doc.on('update', (_update: Uint8Array, origin: unknown) => {
-      const local = origin === this.localOrigin || origin === this.undoManager;
-      if (local && this.snapshot.connection !== 'connected' && !this.snapshot.hasPendingEdits) this.update({ hasPendingEdits: true });
-      // Reading and validating the patch once per frame is enough, however many updates arrive.
-      this.patchFrame.request();
-    });
-    this.undoManager.on('stack-item-added', () => this.updateUndo());
-    this.undoManager.on('stack-item-popped', () => this.updateUndo());
-    this.provider.awareness.on('change', () => this.peersFrame.request());
+    this.openDocument();
 
     this.socket = io(options.baseUrl, {
       path: '/socket.io/',
@@ -181,6 +190,7 @@ export class SessionConnection {
     });
     this.socket.on('connect', () => this.socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId: options.sessionId }));
     this.socket.on(COMPUTE_EVENTS.joined, (message: JoinedMessage) => {
+      if (this.snapshot.accessEnded) return;
       this.update({ role: message.role, readOnly: message.readOnly, refused: null });
       const current = this.provider.awareness.getLocalState() as Presence | null;
       if (current) this.provider.awareness.setLocalState({ ...current, role: message.role });
@@ -191,6 +201,115 @@ export class SessionConnection {
       this.update({ result: decodeComputeResult(message), computeIssues: [] });
     });
     this.socket.on(COMPUTE_EVENTS.invalid, (message: InvalidMessage) => this.update({ computeIssues: message.issues }));
+    this.socket.on(SESSION_NOTICE_EVENT, (notice: SessionNotice) => this.onNotice(notice));
+  }
+
+  /** A fresh document, provider and undo manager, wired to the snapshot. */
+  private openDocument(): void {
+    const options = this.options;
+    const doc = new Y.Doc();
+    const wsBase = `${options.baseUrl.replace(/^http/, 'ws').replace(/\/$/, '')}/collab`;
+    const provider = new WebsocketProvider(wsBase, options.sessionId, doc, {
+      params: options.token ? { token: options.token } : {},
+      WebSocketPolyfill: options.WebSocketPolyfill,
+      disableBc: true,
+      maxBackoffTime: 2500,
+      // Our own close codes are decided here (onClosed); any other close reconnects as usual.
+      shouldReconnect: (event) => !HANDLED_CLOSE_CODES.has(event.code) && !(event.code >= 4400 && event.code < 4500),
+    });
+    provider.awareness.setLocalState({ ...options.presence, pointerXM: null, dragging: null, role: this.snapshot.role } satisfies Presence);
+    const undoManager = new Y.UndoManager(
+      ['meta', 'string', 'damping', 'pickup', 'render', 'displacement', 'velocity', 'extras'].map((key) => (key === 'displacement' || key === 'velocity' ? doc.getArray(key) : doc.getMap(key))),
+      { trackedOrigins: new Set([this.localOrigin]), captureTimeout: CAPTURE_TIMEOUT_MS },
+    );
+    this.doc = doc;
+    this.provider = provider;
+    this.undoManager = undoManager;
+
+    provider.on('status', ({ status }: { status: string }) => {
+      if (status === 'connected') this.everConnected = true;
+      if (this.snapshot.accessEnded) return;
+      const connection: ConnectionState = status === 'connected' ? 'connected' : this.everConnected ? 'reconnecting' : 'connecting';
+      this.update({ connection });
+    });
+    provider.on('sync', (synced: boolean) => this.update({ synced: this.snapshot.synced || synced, hasPendingEdits: !synced && this.snapshot.hasPendingEdits }));
+    provider.on('closed', ({ code, reason }: { code: number; reason: string }) => this.onClosed(code, reason));
+    // y-websocket only logs "permission denied"; here it makes the page read-only and says why.
+    provider.messageHandlers[MESSAGE_AUTH] = (_encoder, decoder) =>
+      authProtocol.readAuthMessage(decoder, doc, (_doc, reason) => this.update({ readOnly: true, readOnlyReason: reason }));
+    doc.on('update', (_update: Uint8Array, origin: unknown) => {
+      const local = origin === this.localOrigin || origin === undoManager;
+      if (local && this.snapshot.connection !== 'connected' && !this.snapshot.hasPendingEdits) this.update({ hasPendingEdits: true });
+      // Reading and validating the patch once per frame is enough, however many updates arrive.
+      this.patchFrame.request();
+    });
+    undoManager.on('stack-item-added', () => this.updateUndo());
+    undoManager.on('stack-item-popped', () => this.updateUndo());
+    provider.awareness.on('change', () => this.peersFrame.request());
+  }
+
+  /**
+   * Drops the local document (and any edits the server did not take) and starts again from the
+   * server's state, with whatever rights the server now gives. The last good patch stays on screen
+   * until the fresh document has synced.
+   */
+  private resetDocument(): void {
+    const old = { doc: this.doc, provider: this.provider, undoManager: this.undoManager };
+    this.openDocument();
+    old.undoManager.destroy();
+    old.provider.destroy();
+    old.doc.destroy();
+    this.update({ synced: false, hasPendingEdits: false, canUndo: false, canRedo: false, peers: [] });
+  }
+
+  /** The server closed the document's websocket with one of our codes. */
+  private onClosed(code: number, reason: string): void {
+    if (code === LIVE_CLOSE_CODES.accessRevoked || code === LIVE_CLOSE_CODES.sessionDeleted) {
+      return this.endAccess({ code, reason: code === LIVE_CLOSE_CODES.sessionDeleted ? 'session-deleted' : endReasonOf(reason), message: reason || 'Your access to this session ended' });
+    }
+    if (code === LIVE_CLOSE_CODES.roleChanged) {
+      this.update({ notice: { tone: 'info', message: reason || 'Your rights in this session changed' } });
+      this.resubscribe();
+      return this.resetDocument();
+    }
+    if (code === LIVE_CLOSE_CODES.editRefused || code === LIVE_CLOSE_CODES.flooded) {
+      this.update({ notice: { tone: 'error', message: `Your last edit was refused: ${reason || 'the server could not take it'}. The session shows the server's copy again.` } });
+      return this.resetDocument();
+    }
+    // Any other permanent close (4400-4499) from a server we do not know better.
+    this.endAccess({ code, reason: 'closed', message: reason || `The server closed the session (code ${code})` });
+  }
+
+  private onNotice(notice: SessionNotice): void {
+    if (notice.sessionId !== this.options.sessionId || this.snapshot.accessEnded) return;
+    switch (notice.kind) {
+      case 'read-only':
+        this.update({ readOnly: true, notice: { tone: 'caution', message: notice.message } });
+        return this.resubscribe();
+      case 'writable':
+        this.update({ readOnly: false, readOnlyReason: null, notice: { tone: 'info', message: notice.message } });
+        return this.resubscribe();
+      case 'not-saving':
+        return this.update({ notice: { tone: 'caution', message: notice.message } });
+      case 'saving':
+        return this.update({ notice: null });
+      case 'access-ended':
+        return this.endAccess({ code: notice.reason === 'session-deleted' ? LIVE_CLOSE_CODES.sessionDeleted : LIVE_CLOSE_CODES.accessRevoked, reason: notice.reason, message: notice.message });
+    }
+  }
+
+  /** Asks the compute channel again, so its `joined` answer brings the role the server now gives. */
+  private resubscribe(): void {
+    if (this.socket.connected) this.socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId: this.options.sessionId });
+  }
+
+  /** Access ended for good: stop reconnecting, keep what is on screen, and say why. */
+  private endAccess(ended: AccessEnded): void {
+    if (this.snapshot.accessEnded) return;
+    this.provider.shouldConnect = false;
+    this.provider.disconnect();
+    this.socket.disconnect();
+    this.update({ accessEnded: ended, readOnly: true, connection: 'offline', notice: null });
   }
 
   private readPatch(): Pick<SessionSnapshot, 'patch' | 'patchIssues'> {

@@ -1,21 +1,27 @@
-import { useEffect, useState, useSyncExternalStore } from 'react';
+import { useCallback, useEffect, useState, useSyncExternalStore } from 'react';
 import { SessionConnection, type Presence, type SessionSnapshot } from '../api/session-connection';
 
 /**
  * Opens a live session for as long as the component is mounted: document, presence, undo/redo,
  * connection state and the latest compute result, re-rendering on every change.
  */
-export function useSessionConnection(sessionId: string, presence: Pick<Presence, 'name' | 'colour'>): { connection: SessionConnection | null; snapshot: SessionSnapshot | null } {
+export function useSessionConnection(
+  sessionId: string,
+  presence: Pick<Presence, 'name' | 'colour'>,
+): { connection: SessionConnection | null; snapshot: SessionSnapshot | null; reopen: () => void } {
   const [connection, setConnection] = useState<SessionConnection | null>(null);
+  // Raised to open the session again after the server ended it (signed in again, for instance).
+  const [opening, setOpening] = useState(0);
+  const reopen = useCallback(() => setOpening((count) => count + 1), []);
   useEffect(() => {
     const opened = new SessionConnection({ baseUrl: window.location.origin, sessionId, presence });
     setConnection(opened);
     return () => opened.destroy();
     // Presence changes go through connection.setPresence, not a reconnect.
-  }, [sessionId]);
+  }, [sessionId, opening]);
   const snapshot = useSyncExternalStore(
     connection?.subscribe ?? (() => () => undefined),
     () => connection?.getSnapshot() ?? null,
   );
-  return { connection, snapshot };
+  return { connection, snapshot, reopen };
 }
