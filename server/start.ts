@@ -31,4 +31,10 @@ if (!existsSync(builtIndex) || statSync(builtIndex).mtimeMs < newestSourceMs()) 
   console.log('Building the client…');
   await build({ logLevel: 'warn' });
 }
+// Started by a test harness: stop when the harness goes away, however it ends (its end of stdin closes).
+if (process.env.TAUTLINE_EXIT_WITH_STDIN === '1') {
+  process.stdin.on('close', () => process.kill(process.pid, 'SIGTERM'));
+  process.stdin.on('end', () => process.kill(process.pid, 'SIGTERM'));
+  process.stdin.resume();
+}
 await startServer({ serveClient: true });

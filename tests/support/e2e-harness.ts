@@ -18,11 +18,29 @@ export interface E2eHarness {
   close(): Promise<void>;
 }
 
-/** The app started as `npm start` starts it, on a fresh database, and Debian's Chromium to drive it. */
-export async function startE2eHarness(): Promise<E2eHarness> {
+export interface E2eHarnessOptions {
+  /** The browser to launch (default CHROMIUM_PATH). */
+  chromiumPath?: string;
+  /** Called as soon as the app runs, before the browser starts (the clean-up test reads its process group). */
+  onAppStarted?: (app: AppProcess) => void;
+}
+
+/**
+ * The app started as `npm start` starts it, on a fresh database, and Debian's Chromium to drive it.
+ * If the browser does not start, the app is stopped before the error is passed on; `close` stops
+ * everything it can even when one step fails.
+ */
+export async function startE2eHarness(options: E2eHarnessOptions = {}): Promise<E2eHarness> {
   mkdirSync(SCREENSHOTS_DIR, { recursive: true });
   const app = await startAppProcess();
-  const browser = await launchBrowser();
+  options.onAppStarted?.(app);
+  let browser: Browser;
+  try {
+    browser = await launchBrowser(options.chromiumPath);
+  } catch (error) {
+    await app.stop();
+    throw error;
+  }
   const contexts: BrowserContext[] = [];
   return {
     app,
@@ -39,9 +57,18 @@ export async function startE2eHarness(): Promise<E2eHarness> {
       await page.getByRole('button', { name: 'Sign in' }).click();
     },
     async close() {
-      for (const context of contexts) await context.close();
-      await browser.close();
-      await app.stop();
+      const failures: unknown[] = [];
+      const attempt = async (step: () => Promise<void>) => {
+        try {
+          await step();
+        } catch (error) {
+          failures.push(error);
+        }
+      };
+      for (const context of contexts) await attempt(() => context.close());
+      await attempt(() => browser.close());
+      await attempt(() => app.stop());
+      if (failures.length > 0) throw failures[0];
     },
   };
 }
