@@ -49,6 +49,8 @@ export const LIMITS = {
   renderDecayThresholdDb: { min: -120, max: -30 },
   /** Fade applied at a decay cut, milliseconds. */
   renderFadeMs: { min: 0, max: 500 },
+  /** Fade that ends a fixed-length render whose settings name none, milliseconds. */
+  renderFixedFadeMs: 10,
   /** Normalisation targets a render may ask for. */
   renderPeakCeilingDbfs: { min: -30, max: 0 },
   renderLoudnessTargetLufs: { min: -40, max: -6 },

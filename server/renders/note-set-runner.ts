@@ -1,8 +1,10 @@
-import { retunePatch } from '../../shared/designer/retune-patch';
 import { modeFrequencyHz } from '../../shared/engine/mode-frequencies';
+import type { Patch } from '../../shared/patch/patch-schema';
 import { validatePatch } from '../../shared/patch/validate-patch';
+import { noteSetFileRender } from '../../shared/renders/note-set-file-render';
 import { buildNoteSetManifest, NOTE_SET_MANIFEST_FILE_NAME } from '../../shared/renders/note-set-manifest';
-import { applyStrength, noteSetPlan } from '../../shared/renders/note-set-plan';
+import { noteSetPlan } from '../../shared/renders/note-set-plan';
+import { noteSetLevellingNote } from '../../shared/renders/render-levelling';
 import type { WavMetadata } from '../audio/encode-wav';
 import type { Render } from '../db/entities/render';
 import { renderWavFile, type ProgressSink } from './render-job-runner';
@@ -14,10 +16,13 @@ const FILES_SHARE = 0.95;
 
 /**
  * A multi-note set as one job: every note of the range at every strength, each retuned (by tension
- * or length) and rendered by the engine, then packed with a manifest into one ZIP. Notes render a
- * few at a time, so the pool's threads stay busy while one file is being levelled and encoded.
+ * or length, a stereo set's second pickup moving with the string) and rendered by the engine, then
+ * packed with a manifest into one ZIP. Each file carries its own patch in its INFO comment
+ * (`metadataFor`). Notes render a few at a time, so the pool's threads stay busy while one file is
+ * being levelled and encoded.
  */
-export async function renderNoteSet(pool: RenderTaskPool, render: Render, metadata: WavMetadata, onProgress: ProgressSink) {
+export async function renderNoteSet(pool: RenderTaskPool, render: Render, metadataFor: (patch: Patch) => WavMetadata, onProgress: ProgressSink) {
+  const metadata = metadataFor(render.patch);
   const spec = render.noteSet;
   if (!spec) throw new Error('a note-set render has no note set');
   const plan = noteSetPlan(spec, render.name);
@@ -39,11 +44,12 @@ export async function renderNoteSet(pool: RenderTaskPool, render: Render, metada
     while (next < notes.length) {
       let noteGain: number | undefined;
       for (const { file, index } of notes[next++]) {
-        const checked = validatePatch(applyStrength(retunePatch(render.patch, file.rootMidi, spec.retuneBy), file));
+        const made = noteSetFileRender(render.patch, render.output, spec.retuneBy, file);
+        const checked = validatePatch(made.patch);
         if (!checked.ok) throw new Error(`${file.fileName}: ${checked.issues[0].message}`);
         fundamentalsHz[index] = modeFrequencyHz(checked.value.string, 1);
         const title = `${render.name} ${file.rootName} strength ${file.strength}/${file.strengthCount}`;
-        results[index] = await renderWavFile(pool, { id: render.id, fileKey: file.fileName }, checked.value, render.output, { ...metadata, title }, index + 1, (fraction) => {
+        results[index] = await renderWavFile(pool, { id: render.id, fileKey: file.fileName }, checked.value, made.output, { ...metadataFor(checked.value), title }, index + 1, (fraction) => {
           fractions[index] = fraction;
           report();
         }, noteGain);
@@ -71,6 +77,10 @@ export async function renderNoteSet(pool: RenderTaskPool, render: Render, metada
   onProgress(1);
   const loudest = results.reduce((best, result) => (result.integratedLufs > best.integratedLufs ? result : best), results[0]);
   return {
+    levellingNote: noteSetLevellingNote(
+      results.map((result) => result.levelling),
+      render.output,
+    ),
     bytes: zipped.bytes,
     fileCount: results.length,
     durationS: Math.max(...results.map((result) => result.durationS)),

@@ -1,8 +1,9 @@
-import { mkdirSync, readdirSync, rmSync } from 'node:fs';
+import { readdirSync, rmSync } from 'node:fs';
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
 import { In } from 'typeorm';
 import type { RenderProgressMessage } from '../../shared/protocol/render-protocol';
+import { levellingNote } from '../../shared/renders/render-levelling';
 import type { RenderState } from '../../shared/renders/render-settings';
 import type { AppContext } from '../app-context';
 import { Render } from '../db/entities/render';
@@ -10,6 +11,7 @@ import { writeFileAtomic } from '../files/write-file-atomic';
 import { renderWavFile } from './render-job-runner';
 import { renderNoteSet } from './note-set-runner';
 import { RenderTaskPool, TaskCancelledError } from './render-task-pool';
+import { ensureRendersDir, exitCleanlyIfUncaught, RendersDirError } from './renders-dir';
 
 const ACTIVE: RenderState[] = ['queued', 'rendering'];
 
@@ -40,8 +42,13 @@ export class RenderService {
     private readonly context: AppContext,
     pool?: RenderTaskPool,
   ) {
+    try {
+      ensureRendersDir(context.config.rendersDir);
+    } catch (error) {
+      if (error instanceof RendersDirError) exitCleanlyIfUncaught(error);
+      throw error;
+    }
     this.pool = pool ?? new RenderTaskPool();
-    mkdirSync(context.config.rendersDir, { recursive: true });
     this.ready = this.recover();
   }
 
@@ -174,7 +181,7 @@ export class RenderService {
       const made =
         render.kind === 'single'
           ? await this.renderSingle(render, onProgress)
-          : await renderNoteSet(this.pool, render, this.metadata(render), onProgress);
+          : await renderNoteSet(this.pool, render, (patch) => this.metadata(render, patch), onProgress);
       if (this.cancelled.has(id)) return;
       const usedElsewhere = (await this.usageBytes(render.studioId)) - render.estimatedBytes;
       if (usedElsewhere + made.bytes.length > this.context.config.renderQuotaBytes) throw new RenderQuotaError("the finished file would not fit in this studio's render storage");
@@ -186,13 +193,26 @@ export class RenderService {
       }
       await this.repository.update(
         { id },
-        { state: 'done', progressPercent: 100, fileName, sizeBytes: made.bytes.length, durationS: made.durationS, peakDbfs: finite(made.peakDbfs), truePeakDbtp: finite(made.truePeakDbtp), integratedLufs: finite(made.integratedLufs), fileCount: made.fileCount, finishedAt: this.context.clock() },
+        {
+          state: 'done',
+          progressPercent: 100,
+          fileName,
+          sizeBytes: made.bytes.length,
+          durationS: made.durationS,
+          peakDbfs: finite(made.peakDbfs),
+          truePeakDbtp: finite(made.truePeakDbtp),
+          integratedLufs: finite(made.integratedLufs),
+          fileCount: made.fileCount,
+          levellingNote: made.levellingNote,
+          finishedAt: this.context.clock(),
+        },
       );
       this.emit({ ...render, state: 'done', progressPercent: 100, error: null });
     } catch (error) {
       if (error instanceof TaskCancelledError || this.cancelled.has(id)) return;
-      const message = error instanceof Error ? error.message : String(error);
-      this.context.log(`render ${id} failed: ${message}`);
+      // The detail (paths, codes) goes to the server's log; members see plain words.
+      this.context.log(`render ${id} failed: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`);
+      const message = publicMessage(error);
       await this.repository.update({ id }, { state: 'failed', error: message, finishedAt: this.context.clock() });
       this.emit({ ...render, state: 'failed', error: message });
     }
@@ -200,12 +220,12 @@ export class RenderService {
 
   private async renderSingle(render: Render, onProgress: (fraction: number) => void) {
     const finished = await renderWavFile(this.pool, { id: render.id, fileKey: 'wav' }, render.patch, render.output, this.metadata(render), seedOf(render.id), onProgress);
-    return { ...finished, fileCount: 1 };
+    return { ...finished, fileCount: 1, levellingNote: levellingNote(finished.levelling, render.output, finite(finished.integratedLufs)) };
   }
 
-  /** What a file says about itself: its name, the software, the date, and the settings and patch as JSON. */
-  metadata(render: Render) {
-    const comment = JSON.stringify({ software: 'Tautline', render: { name: render.name, source: { kind: render.sourceKind, name: render.sourceName }, output: render.output, noteSet: render.noteSet }, patch: render.patch });
+  /** What a file says about itself: its name, the software, the date, and the settings and the patch it was made from (a note's own, in a set) as JSON. */
+  metadata(render: Render, patch = render.patch) {
+    const comment = JSON.stringify({ software: 'Tautline', render: { name: render.name, source: { kind: render.sourceKind, name: render.sourceName }, output: render.output, noteSet: render.noteSet }, patch });
     return { title: render.name, software: 'Tautline', date: this.context.clock().toISOString().slice(0, 10), comment };
   }
 
@@ -217,6 +237,17 @@ export class RenderService {
     }
     await this.pool.close();
   }
+}
+
+/**
+ * What a member is told when a job fails: the quota's own message, else plain words that show no
+ * server path; the detail is in the server's log.
+ */
+function publicMessage(error: unknown): string {
+  if (error instanceof RenderQuotaError) return error.message;
+  const code = (error as NodeJS.ErrnoException | null)?.code;
+  if (typeof code === 'string' && /^E[A-Z]+$/.test(code)) return 'the render could not be written to storage; an administrator has the details';
+  return 'the render failed on the server; an administrator has the details';
 }
 
 /** Levels of a silent render are −∞; the database (and JSON) keep them as null. */

@@ -1,5 +1,6 @@
 import type { Patch } from '../../shared/patch/patch-schema';
 import type { RenderSegment } from '../../shared/renders/render-plan';
+import type { RenderLevelling } from '../../shared/renders/render-levelling';
 import type { RenderOutput } from '../../shared/renders/render-settings';
 import type { WavMetadata } from '../audio/encode-wav';
 
@@ -35,6 +36,7 @@ export interface FinishResult {
   gain: number;
   cutSample: number | null;
   limitedByTruePeak: boolean;
+  levelling: RenderLevelling;
   clippedCount: number;
 }
 

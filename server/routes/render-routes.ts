@@ -1,7 +1,9 @@
 import { Router, type Request } from 'express';
 import { LIMITS } from '../../shared/limits';
 import { fieldIssue } from '../../shared/patch/field-issue';
-import { createRenderBody, type RenderView } from '../../shared/renders/render-settings';
+import { noteSetFileIssue } from '../../shared/renders/note-set-file-render';
+import { noteSetPlan } from '../../shared/renders/note-set-plan';
+import { createRenderBodyFields, unlevelledPcmMessage, type RenderView } from '../../shared/renders/render-settings';
 import type { AppContext } from '../app-context';
 import { requireAccess, requireMembership, requirePermission } from '../access/studio-access';
 import { currentUser, requireUser } from '../auth/authenticate';
@@ -31,6 +33,7 @@ function renderView(render: Render, creatorName: string | null): RenderView {
     truePeakDbtp: render.truePeakDbtp,
     integratedLufs: render.integratedLufs,
     fileCount: render.fileCount,
+    levellingNote: render.levellingNote ?? null,
     error: render.error,
     createdBy: render.createdById ? { id: render.createdById, displayName: creatorName } : null,
     createdAt: render.createdAt.toISOString(),
@@ -86,7 +89,8 @@ export function renderRoutes(context: AppContext): Router {
   router.post('/studios/:studioId/renders', async (request, response) => {
     const user = currentUser(request);
     const membership = await requireAccess(context.dataSource, user.id, request.params.studioId, 'exportRenders');
-    const body = parseInput(createRenderBody, request.body);
+    // Level "none" in a PCM file is checked below, once the patch's pickup (and so its unit) is known.
+    const body = parseInput(createRenderBodyFields, request.body);
     let source: { kind: 'session' | 'preset'; id: string; name: string; patch: unknown; sessionId: string | null };
     if (body.source.kind === 'session') {
       const session = await context.dataSource.getRepository(Session).findOneBy({ id: body.source.sessionId, studioId: membership.studioId });
@@ -102,6 +106,14 @@ export function renderRoutes(context: AppContext): Router {
     if (channels.kind === 'stereo' && !(channels.secondPickupPositionM < patch.string.lengthM)) {
       const field = ['output', 'channels', 'secondPickupPositionM'];
       throw invalidFields([fieldIssue(field, `must lie on the string: more than 0 and less than its length, ${patch.string.lengthM} m (${(patch.string.lengthM * 1000).toFixed(1)} mm)`, channels.secondPickupPositionM)]);
+    }
+    if (body.output.normalization.kind === 'none' && body.output.format !== 'f32') {
+      throw invalidFields([fieldIssue(['output', 'normalization', 'kind'], unlevelledPcmMessage(patch.pickup.output), 'none')]);
+    }
+    if (body.kind === 'noteSet') {
+      // Every file's own patch and pickups, before the job is admitted.
+      const issue = noteSetFileIssue(patch, body.output, body.noteSet, noteSetPlan(body.noteSet, body.name ?? source.name));
+      if (issue) throw invalidFields([issue]);
     }
     const patchJsonBytes = Buffer.byteLength(JSON.stringify(patch));
     const files = body.kind === 'noteSet' ? noteSetFileCount(body.noteSet) : 1;

@@ -4,6 +4,7 @@ import { loudnessGain } from '../audio/normalize-loudness';
 import { truePeak } from '../audio/true-peak';
 import { LIMITS } from '../limits';
 import { decayCutSample, fadeOut } from './decay-cut';
+import type { RenderLevelling } from './render-levelling';
 import type { RenderOutput } from './render-settings';
 
 /** A render's channels as they will be written, and the figures stored with it. */
@@ -20,6 +21,8 @@ export interface FinishedRender {
   integratedLufs: number;
   /** True when a loudness target was lowered to keep the true peak under its ceiling. */
   limitedByTruePeak: boolean;
+  /** How the level was set (see RenderLevelling). */
+  levelling: RenderLevelling;
 }
 
 function samplePeak(channels: ReadonlyArray<Float64Array>): number {
@@ -29,12 +32,15 @@ function samplePeak(channels: ReadonlyArray<Float64Array>): number {
 }
 
 /**
- * Turns rendered channels into what is written: cut where the tone has decayed (with a short fade),
- * then brought to its level: none, the sample peak to a ceiling, or the integrated loudness
+ * Turns rendered channels into what is written: cut where the tone has decayed, or at its fixed
+ * length, with a short raised-cosine fade (the settings' fade, LIMITS.renderFixedFadeMs for a fixed
+ * length that names none), then brought to its level: none, the sample peak to a ceiling, or the integrated loudness
  * (ITU-R BS.1770, gated) to a target with the true peak kept under a ceiling. The true peak scales
  * exactly with a gain and is measured once; the loudness is measured again after levelling, because
  * the absolute gate does not scale. A mono render is measured as one front channel. Levels of a
- * silent render are −Infinity. A `fixedGain` replaces the levelling (the softer strengths of a
+ * silent render are −Infinity. A loudness render shorter than one 400 ms gating block has no
+ * integrated loudness (BS.1770-4 Annex 1), so its true peak is brought to the ceiling instead
+ * (`truePeakShort`). A `fixedGain` replaces the levelling (the softer strengths of a
  * note set take the gain of the note's hardest, so that the strengths keep their levels).
  */
 export function finishRender(rendered: Float64Array[], sampleRateHz: number, output: RenderOutput, fixedGain?: number): FinishedRender {
@@ -47,6 +53,10 @@ export function finishRender(rendered: Float64Array[], sampleRateHz: number, out
     // The fade ends at the cut; a tail shorter than the fade keeps what it has.
     channels = rendered.map((channel) => channel.slice(0, cutSample as number));
     fadeOut(channels, cutSample, fadeSamples);
+  } else {
+    // A fixed length stops mid-tone: end it with a fade too, so the file makes no click.
+    const fadeSamples = Math.round(((output.length.fadeMs ?? LIMITS.renderFixedFadeMs) / 1000) * sampleRateHz);
+    fadeOut(channels, rendered[0].length, fadeSamples);
   }
 
   // Levels are measured where the file will sit: the absolute gate (−70 LUFS) depends on the
@@ -73,8 +83,17 @@ export function finishRender(rendered: Float64Array[], sampleRateHz: number, out
     gain *= ceiling;
     truePeakLinear *= ceiling;
   }
-  let integratedLufs = integratedLoudness(channels, sampleRateHz).integratedLufs;
-  if (normalization.kind === 'loudness' && Number.isFinite(integratedLufs)) {
+  const measured = integratedLoudness(channels, sampleRateHz);
+  let integratedLufs = measured.integratedLufs;
+  let levelling: RenderLevelling = fixedGain !== undefined ? 'strengthGain' : normalization.kind === 'peak' ? 'peak' : normalization.kind === 'loudness' ? 'loudness' : 'none';
+  if (normalization.kind === 'loudness' && measured.blockCount === 0 && truePeakLinear > 0) {
+    // No whole 400 ms block: no integrated loudness to level by; the true peak goes to the ceiling.
+    const level = gainFromDecibels(normalization.truePeakCeilingDbtp) / truePeakLinear;
+    scale(level);
+    gain *= level;
+    truePeakLinear *= level;
+    levelling = 'truePeakShort';
+  } else if (normalization.kind === 'loudness' && Number.isFinite(integratedLufs)) {
     // Twice: the second pass corrects the little the absolute gate moves with the level.
     for (let pass = 0; pass < 2 && Math.abs(integratedLufs - normalization.targetLufs) > 0.005 && !limitedByTruePeak; pass++) {
       const level = loudnessGain({ integratedLufs, truePeakLinear }, normalization.targetLufs, normalization.truePeakCeilingDbtp);
@@ -84,6 +103,7 @@ export function finishRender(rendered: Float64Array[], sampleRateHz: number, out
       limitedByTruePeak = level.limitedByTruePeak;
       integratedLufs = integratedLoudness(channels, sampleRateHz).integratedLufs;
     }
+    if (limitedByTruePeak) levelling = 'truePeakCeiling';
   }
 
   const frames = channels[0].length;
@@ -97,5 +117,6 @@ export function finishRender(rendered: Float64Array[], sampleRateHz: number, out
     truePeakDbtp: decibelsFromGain(truePeakLinear),
     integratedLufs,
     limitedByTruePeak,
+    levelling,
   };
 }

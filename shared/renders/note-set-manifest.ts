@@ -3,6 +3,7 @@ import type { WavFormat } from '../audio/wav-format';
 import type { RetuneBy } from '../designer/retune-patch';
 import type { DecibelsFullScale, Hertz, LoudnessUnitsFullScale, SampleRate, Seconds } from '../units';
 import type { NoteSetFile } from './note-set-plan';
+import type { RenderLevelling } from './render-levelling';
 import type { RenderOutput } from './render-settings';
 
 /** The `format` and `version` a note-set manifest carries; a reader refuses other values. */
@@ -26,6 +27,13 @@ export type NoteSetManifestFile = { file: string } & Omit<NoteSetFile, 'fileName
   peakDbfs: DecibelsFullScale | null;
   truePeakDbtp: DecibelsFullScale | null;
   integratedLufs: LoudnessUnitsFullScale | null;
+  /**
+   * How its level was set: `loudness` (on the target), `truePeakCeiling` (held below the target by
+   * the true-peak ceiling), `truePeakShort` (shorter than one 400 ms loudness block: its true peak
+   * on the ceiling), `peak`, `none`, or `strengthGain` (a softer strength, at its note's hardest
+   * strength's gain).
+   */
+  levelling: RenderLevelling;
 };
 
 /**
@@ -59,6 +67,7 @@ export interface RenderedNoteFigures {
   peakDbfs: DecibelsFullScale;
   truePeakDbtp: DecibelsFullScale;
   integratedLufs: LoudnessUnitsFullScale;
+  levelling: RenderLevelling;
 }
 
 /** JSON has no infinities: a level of a silent file (−∞) is written as null. */
@@ -105,6 +114,7 @@ export function buildNoteSetManifest(set: {
       peakDbfs: finiteOrNull(rendered.peakDbfs),
       truePeakDbtp: finiteOrNull(rendered.truePeakDbtp),
       integratedLufs: finiteOrNull(rendered.integratedLufs),
+      levelling: rendered.levelling,
     })),
   };
 }

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { WAV_FORMATS } from '../audio/wav-format';
 import { LIMITS } from '../limits';
+import type { PickupOutput } from '../patch/patch-schema';
 
 /**
  * What a render job is asked to make: the request body of `POST /api/studios/:id/renders`, shared
@@ -31,7 +32,12 @@ export const renderChannels = z.discriminatedUnion(
 export const renderLength = z.discriminatedUnion(
   'kind',
   [
-    z.object({ kind: z.literal('fixed'), durationS: finite().gte(LIMITS.renderMinDurationS, `must be >= ${LIMITS.renderMinDurationS}`).lte(LIMITS.renderMaxDurationS, `must be <= ${LIMITS.renderMaxDurationS}`) }),
+    z.object({
+      kind: z.literal('fixed'),
+      durationS: finite().gte(LIMITS.renderMinDurationS, `must be >= ${LIMITS.renderMinDurationS}`).lte(LIMITS.renderMaxDurationS, `must be <= ${LIMITS.renderMaxDurationS}`),
+      /** The fade that ends the file; LIMITS.renderFixedFadeMs when not given (older renders have none). */
+      fadeMs: between(LIMITS.renderFadeMs).optional(),
+    }),
     z.object({
       kind: z.literal('untilDecayed'),
       thresholdDb: between(LIMITS.renderDecayThresholdDb),
@@ -53,19 +59,32 @@ export const renderNormalization = z.discriminatedUnion(
   'must be none, peak or loudness',
 );
 
-/** How a file is written: rate, sample format, channels, length and level. */
-export const renderOutput = z
-  .object({
-    sampleRateHz,
-    format: z.enum(WAV_FORMATS, `must be one of ${WAV_FORMATS.join(', ')}`),
-    channels: renderChannels,
-    length: renderLength,
-    normalization: renderNormalization,
-  })
-  .refine((output) => output.normalization.kind !== 'none' || output.format === 'f32', {
-    message: 'none keeps physical units (metres), which only a 32-bit float file can hold: choose peak or loudness for PCM',
-    path: ['normalization', 'kind'],
-  });
+/** The unit a pickup's signal is in, as a render left unlevelled keeps it. */
+export const PICKUP_UNITS: Record<PickupOutput, string> = { displacement: 'm', velocity: 'm/s', force: 'N' };
+
+/** Why level "none" cannot go in a PCM file, in the pickup's own unit (or all three when the patch is not known yet). */
+export function unlevelledPcmMessage(pickupOutput?: PickupOutput): string {
+  const units = pickupOutput ? `the pickup's ${pickupOutput} in ${PICKUP_UNITS[pickupOutput]}` : 'physical units (m, m/s or N, as the pickup reads)';
+  return `none keeps ${units}, which only a 32-bit float file can hold: choose peak or loudness for PCM`;
+}
+
+/** How a file is written: rate, sample format, channels, length and level; unchecked as a whole. */
+const renderOutputFields = z.object({
+  sampleRateHz,
+  format: z.enum(WAV_FORMATS, `must be one of ${WAV_FORMATS.join(', ')}`),
+  channels: renderChannels,
+  length: renderLength,
+  normalization: renderNormalization,
+});
+
+/**
+ * How a file is written, checked as a whole: level "none" only in a float file. The browser checks
+ * it with the generic message; the server, which knows the patch's pickup, names its unit.
+ */
+export const renderOutput = renderOutputFields.refine((output) => output.normalization.kind !== 'none' || output.format === 'f32', {
+  message: unlevelledPcmMessage(),
+  path: ['normalization', 'kind'],
+});
 export type RenderOutput = z.infer<typeof renderOutput>;
 
 /** A range of notes at several strengths, each note retuned by tension or by length. */
@@ -84,21 +103,29 @@ export type NoteSetSpec = z.infer<typeof noteSetSpec>;
 
 const renderName = z.string().trim().max(LIMITS.maxRenderNameLength, `must be at most ${LIMITS.maxRenderNameLength} characters`).optional();
 
-/** The body of a new render: one file, or a multi-note set delivered as a ZIP. */
-export const createRenderBody = z.discriminatedUnion(
-  'kind',
-  [
-    z.object({ kind: z.literal('single'), name: renderName, source: renderSource, output: renderOutput }),
-    z.object({ kind: z.literal('noteSet'), name: renderName, source: renderSource, output: renderOutput, noteSet: noteSetSpec }).superRefine((body, context) => {
-      const { length } = body.output;
-      const seconds = length.kind === 'fixed' ? length.durationS : length.maxDurationS;
-      if (seconds > LIMITS.noteSetMaxDurationS) {
-        context.addIssue({ code: 'custom', message: `must be <= ${LIMITS.noteSetMaxDurationS} for each note of a set`, path: ['output', 'length', length.kind === 'fixed' ? 'durationS' : 'maxDurationS'] });
-      }
-    }),
-  ],
-  'must be single or noteSet',
-);
+/**
+ * The body of a new render: one file, or a multi-note set delivered as a ZIP. `createRenderBody`
+ * checks the output as a whole (the browser's form); the server parses `createRenderBodyFields`
+ * and then checks level "none" against the patch's pickup, with `unlevelledPcmMessage`.
+ */
+// In zod 4 a refined object keeps its type, so both outputs fit one signature.
+const renderBodyWith = (output: typeof renderOutputFields) =>
+  z.discriminatedUnion(
+    'kind',
+    [
+      z.object({ kind: z.literal('single'), name: renderName, source: renderSource, output }),
+      z.object({ kind: z.literal('noteSet'), name: renderName, source: renderSource, output, noteSet: noteSetSpec }).superRefine((body, context) => {
+        const { length } = body.output;
+        const seconds = length.kind === 'fixed' ? length.durationS : length.maxDurationS;
+        if (seconds > LIMITS.noteSetMaxDurationS) {
+          context.addIssue({ code: 'custom', message: `must be <= ${LIMITS.noteSetMaxDurationS} for each note of a set`, path: ['output', 'length', length.kind === 'fixed' ? 'durationS' : 'maxDurationS'] });
+        }
+      }),
+    ],
+    'must be single or noteSet',
+  );
+export const createRenderBody = renderBodyWith(renderOutput);
+export const createRenderBodyFields = renderBodyWith(renderOutputFields);
 export type CreateRenderBody = z.infer<typeof createRenderBody>;
 
 export const RENDER_STATES = ['queued', 'rendering', 'done', 'failed', 'cancelled'] as const;
@@ -123,6 +150,8 @@ export interface RenderView {
   truePeakDbtp: number | null;
   integratedLufs: number | null;
   fileCount: number | null;
+  /** Set when the level is not what the settings asked for: held below the loudness target by the true-peak ceiling, or too short for loudness. */
+  levellingNote?: string | null;
   error: string | null;
   createdBy: { id: string; displayName: string | null } | null;
   createdAt: string;

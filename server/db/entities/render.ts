@@ -72,6 +72,10 @@ export class Render {
   @Column({ type: 'integer', nullable: true })
   fileCount!: number | null;
 
+  /** Set when the level is not what the settings asked for (true-peak ceiling, too short for loudness). */
+  @Column({ type: 'varchar', nullable: true })
+  levellingNote!: string | null;
+
   @Column({ type: 'varchar', nullable: true })
   error!: string | null;
 

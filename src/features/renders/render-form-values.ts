@@ -82,7 +82,7 @@ export function renderBodyFromForm(values: RenderFormValues): unknown {
     channels: values.channels === 'stereo' ? { kind: 'stereo', secondPickupPositionM: secondMm === undefined ? undefined : secondMm / 1000 } : { kind: 'mono' },
     length:
       values.lengthKind === 'fixed'
-        ? { kind: 'fixed', durationS: numberFromText(values.durationS) }
+        ? { kind: 'fixed', durationS: numberFromText(values.durationS), fadeMs: numberFromText(values.fadeMs) }
         : { kind: 'untilDecayed', thresholdDb: numberFromText(values.thresholdDb), fadeMs: numberFromText(values.fadeMs), maxDurationS: numberFromText(values.maxDurationS) },
     normalization:
       values.level === 'peak'

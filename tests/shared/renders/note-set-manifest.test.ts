@@ -20,6 +20,7 @@ const figures = (file: NoteSetFile, index: number): RenderedNoteFigures & { byte
   peakDbfs: -3 - file.strength,
   truePeakDbtp: -2.5 - file.strength,
   integratedLufs: -30 + 4 * file.strength,
+  levelling: file.strength === file.strengthCount ? 'truePeakCeiling' : 'strengthGain',
   bytes: new Uint8Array(4),
   gain: 0.5,
 });
@@ -56,6 +57,7 @@ describe('buildNoteSetManifest', () => {
       peakDbfs: -5,
       truePeakDbtp: -4.5,
       integratedLufs: -22,
+      levelling: 'strengthGain',
     });
   });
 

@@ -242,12 +242,15 @@ export function NewRenderForm({ studioId, canExport, sessions, presets }: NewRen
             <option value="untilDecayed">Until decayed</option>
           </SelectField>
           {values.lengthKind === 'fixed' ? (
-            <TextField
-              label="Duration (s)"
-              {...text('durationS')}
-              error={error('output.length.durationS')}
-              hint={`${LIMITS.renderMinDurationS} to ${LIMITS.renderMaxDurationS} s${values.noteSet ? `; each note of a set lasts at most ${LIMITS.noteSetMaxDurationS} s` : ''}.`}
-            />
+            <>
+              <TextField
+                label="Duration (s)"
+                {...text('durationS')}
+                error={error('output.length.durationS')}
+                hint={`${LIMITS.renderMinDurationS} to ${LIMITS.renderMaxDurationS} s${values.noteSet ? `; each note of a set lasts at most ${LIMITS.noteSetMaxDurationS} s` : ''}.`}
+              />
+              <TextField label="Fade (ms)" {...text('fadeMs')} error={error('output.length.fadeMs')} hint={`A smooth fade ending the file, ${LIMITS.renderFadeMs.min} to ${LIMITS.renderFadeMs.max} ms.`} />
+            </>
           ) : (
             <>
               <TextField label="Decay threshold (dB)" {...text('thresholdDb')} error={error('output.length.thresholdDb')} hint={`Below the tone's peak, ${range(LIMITS.renderDecayThresholdDb, 'dB')}.`} />

@@ -82,7 +82,18 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
     },
     { key: 'peak', header: 'Peak (dBFS)', sortValue: (render) => render.peakDbfs ?? -Infinity, className: 'tabular-nums', render: (render) => level(render.peakDbfs) },
     { key: 'truePeak', header: 'True peak (dBTP)', sortValue: (render) => render.truePeakDbtp ?? -Infinity, className: 'tabular-nums', render: (render) => level(render.truePeakDbtp) },
-    { key: 'loudness', header: 'Loudness (LUFS)', sortValue: (render) => render.integratedLufs ?? -Infinity, className: 'tabular-nums', render: (render) => level(render.integratedLufs) },
+    {
+      key: 'loudness',
+      header: 'Loudness (LUFS)',
+      sortValue: (render) => render.integratedLufs ?? -Infinity,
+      className: 'tabular-nums',
+      render: (render) => (
+        <div>
+          <p>{level(render.integratedLufs)}</p>
+          {render.levellingNote && <p className={`${muted} max-w-56`}>{render.levellingNote}</p>}
+        </div>
+      ),
+    },
     { key: 'size', header: 'Size', sortValue: (render) => render.sizeBytes ?? -1, className: 'tabular-nums whitespace-nowrap', render: (render) => (render.sizeBytes === null ? none : byteSize(render.sizeBytes)) },
     {
       key: 'made',
