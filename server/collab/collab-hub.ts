@@ -1,7 +1,8 @@
 import { EventEmitter } from 'node:events';
 import type { WebSocket } from 'ws';
 import type { Patch } from '../../shared/patch/patch-schema';
-import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES } from '../../shared/protocol/live-access';
+import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, type SessionNotice } from '../../shared/protocol/live-access';
+import { LIMITS } from '../../shared/limits';
 import { CollabRoom, type Connection } from './collab-room';
 import type { CollabStorage } from './collab-storage';
 
@@ -60,6 +61,7 @@ export class CollabHub extends EventEmitter {
       room = new CollabRoom(sessionId, this.storage, this.log);
       this.rooms.set(sessionId, room);
       room.on('change', () => this.emit('change', sessionId));
+      room.on('notice', (notice: SessionNotice) => this.emit('notice', notice));
       room.on('empty', () => void this.closeRoom(sessionId, room as CollabRoom));
       room.ready.catch(() => this.rooms.delete(sessionId));
     }
@@ -82,22 +84,29 @@ export class CollabHub extends EventEmitter {
    * Takes a websocket that passed authentication. Messages are listened for at once and buffered
    * until the room has loaded, then replayed in order.
    */
-  connect(sessionId: string, socket: WebSocket, who: { userId: string; readOnly: boolean } & Pick<Connection, 'token' | 'studioId' | 'role'>): void {
+  connect(sessionId: string, socket: WebSocket, who: { userId: string; readOnly: boolean } & Pick<Connection, 'token' | 'studioId' | 'role' | 'displayName'>): void {
     const connection: Connection = { ...who, socket, awarenessIds: new Set(), toldReadOnly: false };
     if (this.deleting.has(sessionId)) return void socket.close(LIVE_CLOSE_CODES.sessionDeleted, LIVE_ACCESS_MESSAGES['session-deleted']);
     const buffered: Uint8Array[] = [];
     let room: CollabRoom | null = null;
     this.alive.set(socket, true);
     socket.on('pong', () => this.alive.set(socket, true));
-    socket.on('message', (data: Buffer) => {
-      const message = new Uint8Array(data.buffer, data.byteOffset, data.byteLength);
-      if (!room) return void buffered.push(message);
+    let bufferedBytes = 0;
+    // No message, however malformed, may throw past here: one connection's fault never stops the process.
+    const handle = (target: CollabRoom, message: Uint8Array) => {
       try {
-        room.handleMessage(connection, message);
+        target.handleMessage(connection, message);
       } catch (error) {
         this.log(`collab: bad message on session ${sessionId}: ${(error as Error).message}`);
         socket.close(1003, 'bad message');
       }
+    };
+    socket.on('message', (data: Buffer) => {
+      const message = new Uint8Array(data.buffer, data.byteOffset, data.byteLength);
+      if (room) return handle(room, message);
+      bufferedBytes += message.byteLength;
+      if (bufferedBytes > LIMITS.maxCollabMessageBytes) return void socket.close(LIVE_CLOSE_CODES.flooded, 'too much sent before the session had opened');
+      buffered.push(message);
     });
     socket.on('close', () => room?.removeConnection(connection));
     socket.on('error', () => socket.terminate());
@@ -110,7 +119,7 @@ export class CollabHub extends EventEmitter {
         }
         room = opened;
         opened.addConnection(connection);
-        for (const message of buffered.splice(0)) opened.handleMessage(connection, message);
+        for (const message of buffered.splice(0)) handle(opened, message);
       },
       (error: Error) => {
         this.log(`collab: cannot open session ${sessionId}: ${error.message}`);

@@ -10,6 +10,11 @@ import { writePatchToDoc, validatedPatchFromDoc } from '../../shared/collab/patc
 import type { Patch } from '../../shared/patch/patch-schema';
 import type { Role } from '../../shared/access/roles';
 import type { CollabStorage } from './collab-storage';
+import { closeReason, LiveEditGate } from './live-edit-gate';
+import { filterPresenceUpdate } from './presence-filter';
+import { readStoredLog } from './stored-log-repair';
+import { presenceColour } from '../../shared/collab/presence-colour';
+import type { SessionNotice } from '../../shared/protocol/live-access';
 
 /** y-websocket's message types. */
 const MESSAGE_SYNC = 0;
@@ -37,7 +42,12 @@ export interface Connection {
   /** The studio of the session, and the role the connection was given (or last checked with). */
   studioId?: string;
   role?: Role;
+  /** The person's display name, from the server's records: what everyone sees as their presence. */
+  displayName?: string;
 }
+
+/** How long to wait before trying again to store edits the database refused. */
+const RETRY_STORE_MS = 1000;
 
 /**
  * One session's live document: its connections, presence, and persistence. Every update is queued
@@ -59,6 +69,13 @@ export class CollabRoom extends EventEmitter {
   private closed = false;
   /** Set once the session is being deleted: nothing more is written (see stopStoring). */
   private storingStopped = false;
+  /** Checks every edit before the document takes it (created once the document has loaded). */
+  private gate: LiveEditGate | null = null;
+  /** True while an admitted edit is applied: the gate's probe has it already. */
+  private applyingAdmitted = false;
+  /** False while the database refuses this session's edits (people are told, and writes are retried). */
+  private storing = true;
+  private retryTimer: NodeJS.Timeout | null = null;
 
   constructor(
     readonly sessionId: string,
@@ -67,7 +84,9 @@ export class CollabRoom extends EventEmitter {
   ) {
     super();
     this.awareness.setLocalState(null); // the server has no presence of its own
-    this.ready = this.load();
+    this.ready = this.load().then(() => {
+      this.gate = new LiveEditGate(this.doc);
+    });
     this.doc.on('update', (update: Uint8Array, origin: unknown) => this.onUpdate(update, origin));
     this.awareness.on('update', ({ added, updated, removed }: { added: number[]; updated: number[]; removed: number[] }, origin: unknown) => {
       const changed = [...added, ...updated, ...removed];
@@ -89,9 +108,16 @@ export class CollabRoom extends EventEmitter {
     this.lastUpdateId = stored.lastUpdateId;
     const updates = [...(stored.snapshot ? [stored.snapshot] : []), ...stored.updates];
     if (updates.length > 0) {
-      this.doc.transact(() => {
-        for (const update of updates) Y.applyUpdate(this.doc, update, STORAGE_ORIGIN);
-      }, STORAGE_ORIGIN);
+      const reading = readStoredLog(updates);
+      if (reading.state) Y.applyUpdate(this.doc, reading.state, STORAGE_ORIGIN);
+      if (reading.problem !== null) {
+        // A log stored before live edits were checked: open from the last valid state and keep only that.
+        if (!reading.state) writePatchToDoc(this.doc, stored.patch, STORAGE_ORIGIN);
+        this.log(
+          `collab: session ${this.sessionId}: stored edits hold an invalid patch (${reading.problem}); opened from ${reading.state ? `its last valid state (${reading.kept} of ${updates.length} stored updates)` : 'its saved patch'}`,
+        );
+        await this.storage.compact(this.sessionId, Y.encodeStateAsUpdate(this.doc), stored.lastUpdateId);
+      }
     } else {
       // First time live: the document starts from the session's patch, written once and stored.
       writePatchToDoc(this.doc, stored.patch, SERVER_ORIGIN);
@@ -99,6 +125,7 @@ export class CollabRoom extends EventEmitter {
   }
 
   private onUpdate(update: Uint8Array, origin: unknown): void {
+    if (!this.applyingAdmitted) this.gate?.mirror(update);
     if (origin === STORAGE_ORIGIN) return;
     // Persist first, then broadcast: the update is queued for the database before anyone sees it.
     this.pending.push(update);
@@ -125,10 +152,22 @@ export class CollabRoom extends EventEmitter {
         .then(() => this.storage.append(this.sessionId, [batch.length === 1 ? batch[0] : Y.mergeUpdates(batch)]))
         .then((lastId) => {
           this.lastUpdateId = lastId;
+          this.setStoring(true);
           this.updatesSinceCompact += batch.length;
           if (this.updatesSinceCompact >= COMPACT_EVERY_UPDATES) return this.compactNow();
         })
-        .catch((error: Error) => this.log(`collab: could not store updates of session ${this.sessionId}: ${error.message}`));
+        .catch((error: Error) => {
+          this.log(`collab: could not store updates of session ${this.sessionId}: ${error.message}`);
+          // Keep the edits and try again; meanwhile everyone is told their edits are not being saved.
+          this.pending = [Y.mergeUpdates([...batch, ...this.pending])];
+          this.setStoring(false);
+          if (!this.closed && !this.storingStopped) {
+            this.retryTimer ??= setTimeout(() => {
+              this.retryTimer = null;
+              void this.flush();
+            }, RETRY_STORE_MS);
+          }
+        });
     }
     return this.writes;
   }
@@ -145,12 +184,27 @@ export class CollabRoom extends EventEmitter {
     await this.writes;
   }
 
+  /** Tells everyone in the session when storing stops or starts working again (SessionNotice, relayed by the compute channel). */
+  private setStoring(storing: boolean): void {
+    if (this.storing === storing) return;
+    this.storing = storing;
+    const notice: SessionNotice = storing
+      ? { kind: 'saving', sessionId: this.sessionId }
+      : { kind: 'not-saving', sessionId: this.sessionId, message: 'The server cannot save this session right now. Your edits are kept here and saved once it can.' };
+    this.emit('notice', notice);
+  }
+
+  /** Never rejects: a failure here is logged, and must not end the process. */
   private async refreshPatch(): Promise<void> {
     this.patchTimer = null;
     if (this.storingStopped) return;
-    const result = validatedPatchFromDoc(this.doc);
-    if (!result.ok) return;
-    await this.storage.savePatch(this.sessionId, result.value, this.lastWriter).catch((error: Error) => this.log(`collab: could not refresh patch: ${error.message}`));
+    try {
+      const result = validatedPatchFromDoc(this.doc);
+      if (!result.ok) return;
+      await this.storage.savePatch(this.sessionId, result.value, this.lastWriter);
+    } catch (error) {
+      this.log(`collab: could not refresh the patch of session ${this.sessionId}: ${(error as Error).message}`);
+    }
   }
 
   /** Replaces the whole document content with a patch (REST edits, a preset loaded). */
@@ -207,15 +261,46 @@ export class CollabRoom extends EventEmitter {
         }
         return;
       }
-      encoding.writeVarUint(encoder, MESSAGE_SYNC);
-      syncProtocol.readSyncMessage(decoder, encoder, this.doc, connection);
-      if (encoding.length(encoder) > 1) this.send(connection, encoding.toUint8Array(encoder));
+      decoding.readVarUint(decoder);
+      if (subtype === syncProtocol.messageYjsSyncStep1) {
+        encoding.writeVarUint(encoder, MESSAGE_SYNC);
+        syncProtocol.readSyncStep1(decoder, encoder, this.doc);
+        this.send(connection, encoding.toUint8Array(encoder));
+      } else if (subtype === syncProtocol.messageYjsSyncStep2 || subtype === syncProtocol.messageYjsUpdate) {
+        this.applyEdit(connection, decoding.readVarUint8Array(decoder));
+      } else {
+        throw new Error(`unknown sync message ${subtype}`);
+      }
     } else if (type === MESSAGE_AWARENESS) {
-      awarenessProtocol.applyAwarenessUpdate(this.awareness, decoding.readVarUint8Array(decoder), connection);
+      const identity = { name: connection.displayName ?? 'someone', colour: presenceColour(connection.displayName ?? 'someone'), role: connection.role ?? null };
+      const mayUse = (clientId: number) => ![...this.connections].some((other) => other !== connection && other.userId !== connection.userId && other.awarenessIds.has(clientId));
+      const update = filterPresenceUpdate(decoding.readVarUint8Array(decoder), identity, mayUse);
+      if (update) awarenessProtocol.applyAwarenessUpdate(this.awareness, update, connection);
     } else if (type === MESSAGE_QUERY_AWARENESS) {
       encoding.writeVarUint(encoder, MESSAGE_AWARENESS);
       encoding.writeVarUint8Array(encoder, awarenessProtocol.encodeAwarenessUpdate(this.awareness, [...this.awareness.getStates().keys()]));
       this.send(connection, encoding.toUint8Array(encoder));
+    }
+  }
+
+  /**
+   * One edit from a writer: admitted by the gate, then applied (stored and sent to everyone); or
+   * refused: nothing of it is applied or stored, and the sender's connection is closed with the
+   * reason, so that its browser starts again from the session's real state.
+   */
+  private applyEdit(connection: Connection, update: Uint8Array): void {
+    this.gate ??= new LiveEditGate(this.doc);
+    const verdict = this.gate.admit(update);
+    if (!verdict.ok) {
+      this.log(`collab: session ${this.sessionId}: refused an edit from user ${connection.userId}: ${verdict.reason}`);
+      this.disconnect(connection, verdict.code, closeReason(verdict.reason));
+      return;
+    }
+    this.applyingAdmitted = true;
+    try {
+      Y.applyUpdate(this.doc, update, connection);
+    } finally {
+      this.applyingAdmitted = false;
     }
   }
 
@@ -231,12 +316,14 @@ export class CollabRoom extends EventEmitter {
     if (this.closed) return;
     this.closed = true;
     if (this.patchTimer) clearTimeout(this.patchTimer);
+    if (this.retryTimer) clearTimeout(this.retryTimer);
     await this.ready.catch(() => undefined);
     if (!this.storingStopped) {
       await this.refreshPatch();
       await this.compact();
     }
     this.awareness.destroy();
+    this.gate?.destroy();
     this.doc.destroy();
   }
 

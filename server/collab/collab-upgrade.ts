@@ -6,6 +6,7 @@ import type { AppContext } from '../app-context';
 import { tokenFromCookieHeader } from '../auth/authenticate';
 import { AccessLookup } from '../access/live-access-decision';
 import type { CollabHub } from './collab-hub';
+import { User } from '../db/entities/user';
 
 export const COLLAB_PATH = '/collab/';
 
@@ -28,7 +29,9 @@ export async function authorizeCollabUpgrade(context: AppContext, request: Incom
   if (!token || !access || (!access.ok && access.reason === 'signed-out')) return { ok: false as const, status: 401, reason: 'Unauthorized' };
   if (!access.ok) return { ok: false as const, status: 404, reason: 'Not Found' };
   if (access.archived) return { ok: false as const, status: 410, reason: 'Gone' };
-  return { ok: true as const, sessionId, token, userId: access.userId, studioId: access.studioId, role: access.role, readOnly: access.readOnly };
+  // Presence shows the name the server knows, never one the browser claims.
+  const user = await context.dataSource.getRepository(User).findOne({ where: { id: access.userId }, select: { id: true, displayName: true } });
+  return { ok: true as const, sessionId, token, userId: access.userId, studioId: access.studioId, role: access.role, readOnly: access.readOnly, displayName: user?.displayName ?? 'someone' };
 }
 
 /** Routes `upgrade` requests under /collab/ to the document hub, after checking who asks. */
@@ -39,7 +42,7 @@ export function collabUpgradeHandler(context: AppContext, hub: CollabHub) {
     authorizeCollabUpgrade(context, request).then(
       (decision) => {
         if (!decision.ok) return refuse(socket, decision.status, decision.reason);
-        wss.handleUpgrade(request, socket, head, (ws) => hub.connect(decision.sessionId, ws, { userId: decision.userId, readOnly: decision.readOnly, token: decision.token, studioId: decision.studioId, role: decision.role }));
+        wss.handleUpgrade(request, socket, head, (ws) => hub.connect(decision.sessionId, ws, { userId: decision.userId, readOnly: decision.readOnly, token: decision.token, studioId: decision.studioId, role: decision.role, displayName: decision.displayName }));
       },
       (error: Error) => {
         context.log(`collab: upgrade failed: ${error.message}`);

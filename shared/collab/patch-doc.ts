@@ -1,7 +1,7 @@
 import * as Y from 'yjs';
 import type { Patch } from '../patch/patch-schema';
 import { validatePatch } from '../patch/validate-patch';
-import type { Validation } from '../patch/field-issue';
+import { fieldIssue, type FieldIssue, type Validation } from '../patch/field-issue';
 
 /**
  * The layout of a session's shared document, defined once. Scalars live in one Y.Map per part of
@@ -88,17 +88,57 @@ export function writePatchToDoc(doc: Y.Doc, patch: Patch, origin: unknown = null
 /**
  * Reads the interior points of a polyline, repaired so that concurrent edits can never produce
  * garbage: points off the string (x ≤ 0, x ≥ L) or not finite are dropped, the rest sorted by x,
- * and a point on the same x as its neighbour dropped (the first one kept).
+ * and a point on the same x as its neighbour dropped (the first one kept). Entries that are not
+ * points at all are skipped here; `docShapeIssues` refuses them before they reach the document.
  */
 function readPolyline(array: Y.Array<DocPoint>, lengthM: number): [number, number][] {
   const interior = array
     .toArray()
-    .map((point) => [point.get('x'), point.get('y')] as [number | undefined, number | undefined])
-    .filter((point): point is [number, number] => Number.isFinite(point[0]) && Number.isFinite(point[1]) && (point[0] as number) > 0 && (point[0] as number) < lengthM)
+    .filter((point): point is DocPoint => point instanceof Y.Map)
+    .map((point) => [point.get('x'), point.get('y')] as [unknown, unknown])
+    .filter((point): point is [number, number] => isFiniteNumber(point[0]) && isFiniteNumber(point[1]) && point[0] > 0 && point[0] < lengthM)
     .sort((a, b) => a[0] - b[0]);
   const kept: [number, number][] = [];
   for (const point of interior) if (kept.length === 0 || point[0] > kept[kept.length - 1][0]) kept.push(point);
   return [[0, 0], ...kept, [lengthM, 0]];
+}
+
+const isFiniteNumber = (value: unknown): value is number => typeof value === 'number' && Number.isFinite(value);
+
+const POLYLINE_FIELDS = { displacement: 'displacementM', velocity: 'velocityMPerS' } as const;
+const ROOT_NAMES: ReadonlySet<string> = new Set(Object.values(DOC_KEYS));
+
+/**
+ * What the document holds that no patch could: a shared part the layout does not have, or a
+ * polyline entry that is not a point made of a finite x and value (a string, null, a number, text,
+ * NaN, a point with other keys). Ordering and points off the string are not problems here: they
+ * happen when two people edit at once, and reading repairs them the same way on every side.
+ */
+export function docShapeIssues(doc: Y.Doc): FieldIssue[] {
+  const issues: FieldIssue[] = [];
+  for (const name of doc.share.keys()) if (!ROOT_NAMES.has(name)) issues.push(fieldIssue([name], 'is not a part of a patch', undefined, false));
+  const parts = patchDoc(doc);
+  for (const [layer, field] of Object.entries(POLYLINE_FIELDS) as Array<[keyof typeof POLYLINE_FIELDS, string]>) {
+    const entries = parts[layer].toArray() as unknown[];
+    for (let index = 0; index < entries.length && issues.length < 5; index++) {
+      const entry = entries[index];
+      const path = ['excitation', field, index + 1];
+      if (!(entry instanceof Y.Map)) {
+        issues.push(fieldIssue(path, 'must be a point with x and a value', entry instanceof Y.AbstractType ? 'a shared text or list' : entry));
+        continue;
+      }
+      const keys = [...entry.keys()].sort();
+      if (keys.length !== 2 || keys[0] !== 'x' || keys[1] !== 'y') {
+        issues.push(fieldIssue(path, `must hold exactly x and y, got keys ${keys.join(', ') || '(none)'}`, undefined, false));
+        continue;
+      }
+      for (const [key, index2] of [['x', 0], ['y', 1]] as const) {
+        const value: unknown = entry.get(key);
+        if (!isFiniteNumber(value)) issues.push(fieldIssue([...path, index2], 'must be a finite number', value));
+      }
+    }
+  }
+  return issues;
 }
 
 /** The document as a patch-shaped object, not yet validated. */
@@ -122,5 +162,7 @@ export function patchFromDoc(doc: Y.Doc): unknown {
 
 /** The document as a validated patch, or the field problems that stop it from being one. */
 export function validatedPatchFromDoc(doc: Y.Doc): Validation<Patch> {
+  const shape = docShapeIssues(doc);
+  if (shape.length > 0) return { ok: false, issues: shape };
   return validatePatch(patchFromDoc(doc));
 }

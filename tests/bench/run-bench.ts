@@ -5,10 +5,11 @@
 import { collabBench } from './collab-bench';
 import { editorFpsBench } from './editor-fps-bench';
 import { engineBench } from './engine-bench';
+import { liveEditGateBench } from './live-edit-gate-bench';
 import { renderBench } from './render-bench';
 
 const engine = await engineBench();
-const collaboration = await collabBench();
+const collaboration = { ...(await collabBench()), liveEditCheck: liveEditGateBench() };
 const renders = await renderBench();
 const editor = await editorFpsBench();
 process.stdout.write(`${JSON.stringify({ ...engine, collaboration, renders, editor }, null, 2)}\n`);

@@ -2,6 +2,7 @@ import WebSocket from 'ws';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { movePoint, setLengthM } from '../../shared/collab/point-edits';
 import { patchDoc } from '../../shared/collab/patch-doc';
+import { presenceColour } from '../../shared/collab/presence-colour';
 import { as, registerUser, startLiveTestServer, type LiveTestServer } from '../support/test-server';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { eventually, openClient, waitForSnapshot } from '../support/collab-client';
@@ -106,10 +107,13 @@ describe('shared session document', () => {
     await waitForSnapshot(a, (s) => s.synced, 5000, 'synced');
     await waitForSnapshot(b, (s) => s.synced, 5000, 'synced');
     b.setPresence({ pointerXM: 0.31, dragging: { layer: 'displacement', index: 0 } });
-    const seen = await waitForSnapshot(a, (s) => s.peers.some((peer) => peer.name === 'designer' && peer.pointerXM === 0.31), 5000, 'presence');
+    // Name and colour come from the server's records of the person, not from what the client sent ('designer', #d49a2a).
+    const name = 'designer of kla';
+    const seen = await waitForSnapshot(a, (s) => s.peers.some((peer) => peer.name === name && peer.pointerXM === 0.31), 5000, 'presence');
     const peer = seen.peers.find((candidate) => candidate.pointerXM === 0.31);
     expect(peer?.dragging).toEqual({ layer: 'displacement', index: 0 });
-    expect(peer?.colour).toBe('#d49a2a');
+    expect(peer?.colour).toBe(presenceColour(name));
+    expect(peer?.role).toBe('designer');
     b.destroy();
     await waitForSnapshot(a, (s) => !s.peers.some((candidate) => candidate.pointerXM === 0.31), 5000, 'presence removed on leave');
   });

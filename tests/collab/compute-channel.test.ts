@@ -8,6 +8,7 @@ import { modeWavenumber } from '../../shared/engine/mode-frequencies';
 import { COMPUTE_EVENTS, PROTOCOL_VERSION, type RefusedMessage } from '../../shared/protocol/compute-protocol';
 import type { ComputeResult, SessionConnection } from '../../src/features/collab/api/session-connection';
 import { openClient, waitForSnapshot } from '../support/collab-client';
+import { openRawCollabClient } from '../support/raw-collab-client';
 import { runCli } from '../support/run-cli';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { registerUser, startLiveTestServer, type LiveTestServer } from '../support/test-server';
@@ -89,15 +90,19 @@ describe('compute channel', () => {
     expect([...sequences].sort((a, b) => a - b)).toEqual(sequences);
   });
 
-  it('answers a patch that breaks its rules with its field problems instead of a result', async () => {
+  it('never computes a patch that breaks its rules: the live document refuses the edit, and results go on', async () => {
+    const watcher = client('listener');
+    const first = await waitForSnapshot(watcher, (s) => s.synced && s.result !== null, 10_000, 'first result');
+    const attacker = openRawCollabClient(server.baseUrl, fixture.sessionId, fixture.members.designer.token);
+    await attacker.synced;
+    attacker.sendUpdate(attacker.change((doc) => doc.getMap('string').set('tensionN', -5)));
+    expect((await attacker.closed).reason).toContain('string.tensionN must be > 0');
     const writer = client('designer');
-    await waitForSnapshot(writer, (s) => s.synced && s.result !== null, 10_000, 'first result');
-    writer.edit((doc) => patchDoc(doc).string.set('tensionN', -5));
-    const snapshot = await waitForSnapshot(writer, (s) => s.computeIssues.length > 0 && s.patchIssues.length > 0, 10_000, 'invalid message');
-    expect(snapshot.computeIssues[0]).toMatchObject({ field: 'string.tensionN', message: 'string.tensionN must be > 0, got -5' });
-    expect(snapshot.patchIssues[0].field).toBe('string.tensionN');
-    writer.edit((doc) => patchDoc(doc).string.set('tensionN', 60));
-    await waitForSnapshot(writer, (s) => s.computeIssues.length === 0 && s.result !== null, 10_000, 'valid again');
+    await waitForSnapshot(writer, (s) => s.synced && s.patch !== null, 10_000, 'writer synced');
+    writer.edit((doc) => patchDoc(doc).string.set('tensionN', 61));
+    const next = await waitForSnapshot(watcher, (s) => s.result !== null && s.result.sequence > (first.result?.sequence ?? 0) && s.patch?.string.tensionN === 61, 10_000, 'next result');
+    expect(next.computeIssues).toEqual([]);
+    expect(next.patch?.string.tensionN).toBe(61);
   });
 
   it('refuses sockets without a valid token, and subscriptions to a foreign session', async () => {
