@@ -1,7 +1,8 @@
 import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { Link, useLocation, useParams } from 'react-router-dom';
-import { patchDoc } from '../../../shared/collab/patch-doc';
+import { patchDoc, writePatchToDoc } from '../../../shared/collab/patch-doc';
+import { presenceColour } from '../../../shared/collab/presence-colour';
 import { deletePoint, movePoint } from '../../../shared/collab/point-edits';
 import { Button } from '../../components/button';
 import { COMPACT_CONTROL_CLASS } from '../../components/compact-control';
@@ -39,9 +40,8 @@ const LossFields = memo(LossesPanel);
 const PickupFields = memo(PickupPanel);
 const RenderFields = memo(RenderPanel);
 
-/** Colours given to people in a session, picked by their name so everyone sees the same one. */
-const PEOPLE_COLOURS = ['#e8b64f', '#4cc7b8', '#ef8566', '#9b8cf2', '#7fc96b', '#f28cc6'];
-const colourFor = (name: string) => PEOPLE_COLOURS[[...name].reduce((sum, char) => sum + char.charCodeAt(0), 0) % PEOPLE_COLOURS.length];
+/** Everyone's colour comes from their name, the same way on the server (which sets it in presence). */
+const colourFor = presenceColour;
 
 const connectionWords = { connecting: 'Connecting…', connected: 'Connected', reconnecting: 'Reconnecting…', offline: 'Offline' } as const;
 
@@ -226,7 +226,17 @@ export default function SessionPage() {
       {patch && <Handles connection={connection} patch={patch} selection={selected} readOnly={readOnly} onDeleted={clearSelection} />}
       {snapshot.patchIssues.length > 0 && (
         <Notice tone="error" title="The string has a problem">
-          {snapshot.patchIssues.map((issue) => issue.message).join('; ')}
+          <p>{snapshot.patchIssues.map((issue) => issue.message).join('; ')}</p>
+          <p className="mt-2 flex flex-wrap gap-2">
+            <Button variant="secondary" onClick={() => connection.undo()} disabledReason={readOnly ? 'read-only' : snapshot.canUndo ? undefined : 'nothing of yours to undo'}>
+              Undo my last edit
+            </Button>
+            {patch && (
+              <Button variant="secondary" disabledReason={readOnly ? 'read-only' : undefined} onClick={() => connection.edit((doc, origin) => writePatchToDoc(doc, patch, origin))}>
+                Restore the last valid string
+              </Button>
+            )}
+          </p>
         </Notice>
       )}
 
