@@ -38,6 +38,12 @@ export const LIMITS = {
   /** The live preview the server sends while people edit: at most this long and this fast. */
   previewMaxDurationS: 4,
   previewMaxSampleRateHz: 48000,
+  /** Preset audition files: rendered at most this many at once off the event loop, this many more waiting (then 503), kept up to this many bytes. */
+  presetPreviewMaxRendering: 2,
+  presetPreviewMaxWaiting: 8,
+  presetPreviewCacheBytes: 64 * 1024 * 1024,
+  /** Seconds a refused preset audition is told to wait (Retry-After). */
+  presetPreviewRetryAfterS: 2,
   /** Fewest milliseconds between two compute results sent to one session (one per display frame). */
   computeMinIntervalMs: 16,
   /** Largest websocket message the collaboration endpoint accepts, in bytes. */

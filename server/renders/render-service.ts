@@ -10,6 +10,7 @@ import { Render } from '../db/entities/render';
 import { writeFileAtomic } from '../files/write-file-atomic';
 import { renderWavFile } from './render-job-runner';
 import { renderNoteSet } from './note-set-runner';
+import { PresetPreviews } from './preset-previews';
 import { RenderTaskPool, TaskCancelledError } from './render-task-pool';
 import { ensureRendersDir, exitCleanlyIfUncaught, RendersDirError } from './renders-dir';
 
@@ -30,6 +31,8 @@ export class RenderQueueFullError extends Error {}
  */
 export class RenderService {
   readonly pool: RenderTaskPool;
+  /** Preset auditions, rendered on the same worker threads. */
+  readonly previews: PresetPreviews;
   private readonly queue: string[] = [];
   private readonly running = new Set<string>();
   private readonly cancelled = new Set<string>();
@@ -49,6 +52,7 @@ export class RenderService {
       throw error;
     }
     this.pool = pool ?? new RenderTaskPool();
+    this.previews = new PresetPreviews(this.pool);
     this.ready = this.recover();
   }
 

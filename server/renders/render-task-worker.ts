@@ -12,6 +12,10 @@ import { createWasmBankRenderer, type BankRenderer } from '../engine-wasm/wasm-b
 import { renderBank } from '../../shared/engine/render-bank';
 import { renderBankStereo } from '../../shared/engine/render-bank-stereo';
 import { encodeWav } from '../audio/encode-wav';
+import { normalizePeak } from '../../shared/audio/normalize-peak';
+import { AUDITION_PEAK_DBFS } from '../../shared/audio/wav-format';
+import { previewPatch } from '../../shared/engine/preview-patch';
+import { renderPatch } from '../../shared/engine/render-patch';
 import type { FinishResult, PlanResult, RenderTask, RenderTaskResult, TaskReply, TaskRequest } from './render-tasks';
 
 // Renders yield the processor to the server's own thread: on Linux a nice value belongs to a thread,
@@ -71,7 +75,15 @@ async function zip(task: Extract<RenderTask, { type: 'zip' }>): Promise<Uint8Arr
   return archive.generateAsync({ type: 'uint8array' });
 }
 
+/** A preset's audition: short, at no more than the preview rate, peaking at the audition level (seeded dither, so it repeats). */
+function preview(task: Extract<RenderTask, { type: 'preview' }>): Uint8Array {
+  const samples = renderPatch(previewPatch(task.patch));
+  normalizePeak(samples, AUDITION_PEAK_DBFS);
+  return encodeWav(samples, previewPatch(task.patch).render.sampleRateHz, 'pcm16', task.metadata, seededRandom(1)).bytes;
+}
+
 async function run(task: RenderTask): Promise<RenderTaskResult> {
+  if (task.type === 'preview') return { bytes: preview(task) };
   if (task.type === 'plan') return plan(task);
   if (task.type === 'segment') return { channels: segment(task) };
   if (task.type === 'finish') return finish(task);

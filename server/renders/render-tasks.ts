@@ -17,7 +17,9 @@ export type RenderTask =
   /** Cut, fade, level, measure and encode the channels as a WAV file. */
   | { type: 'finish'; channels: Float64Array[]; sampleRateHz: number; output: RenderOutput; metadata: WavMetadata; ditherSeed: number; fixedGain?: number }
   /** Pack files into a ZIP. */
-  | { type: 'zip'; files: Array<{ name: string; bytes: Uint8Array }> };
+  | { type: 'zip'; files: Array<{ name: string; bytes: Uint8Array }> }
+  /** A preset's short audition file: the preview patch rendered, at the audition level, 16-bit. */
+  | { type: 'preview'; patch: Patch; metadata: WavMetadata };
 
 export interface PlanResult {
   totalSamples: number;

@@ -10,14 +10,10 @@ import { currentUser, requireUser } from '../auth/authenticate';
 import { Preset } from '../db/entities/preset';
 import { Session } from '../db/entities/session';
 import { User } from '../db/entities/user';
-import { invalidFields, notFound } from '../http/api-error';
+import { ApiError, invalidFields, notFound } from '../http/api-error';
 import { parseInput, parsePatch } from '../http/parse-input';
-import { normalizePeak } from '../../shared/audio/normalize-peak';
-import { AUDITION_PEAK_DBFS } from '../../shared/audio/wav-format';
-import { previewPatch } from '../../shared/engine/preview-patch';
-import { renderPatch } from '../../shared/engine/render-patch';
-import { seededRandom } from '../../shared/random/seeded-random';
-import { encodeWav } from '../audio/encode-wav';
+import { PreviewBusyError } from '../renders/preset-previews';
+import { RenderService } from '../renders/render-service';
 
 function presetView(preset: Preset, authorName: string | null, withPatch: boolean) {
   return {
@@ -148,15 +144,21 @@ export function presetRoutes(context: AppContext): Router {
     response.json({ preset: presetView(preset, await authorName(preset.createdById), true) });
   });
 
-  // Audition: a short preview, rendered at a modest level so a first listen is never loud.
+  // Audition: a short preview, rendered at a modest level so a first listen is never loud. It is
+  // rendered on a worker thread (never on the event loop) and kept by preset id and version.
   router.get('/presets/:id/preview.wav', async (request, response) => {
     const { preset } = await presetFor(currentUser(request).id, request.params.id);
-    const preview = previewPatch(parsePatch(preset.patch));
-    const samples = renderPatch(preview);
-    normalizePeak(samples, AUDITION_PEAK_DBFS);
-    const wav = encodeWav(samples, preview.render.sampleRateHz, 'pcm16', { title: preset.name, software: 'Tautline', date: new Date().toISOString().slice(0, 10) }, seededRandom(1));
+    const previews = (context.renders ??= new RenderService(context)).previews;
+    let bytes: Uint8Array;
+    try {
+      bytes = await previews.get(`${preset.id}:${preset.version}:${preset.name}`, parsePatch(preset.patch), { title: preset.name, software: 'Tautline', date: context.clock().toISOString().slice(0, 10) });
+    } catch (error) {
+      if (!(error instanceof PreviewBusyError)) throw error;
+      response.setHeader('Retry-After', String(error.retryAfterS));
+      throw new ApiError(503, 'rate_limited', error.message);
+    }
     response.type('audio/wav').setHeader('Cache-Control', 'private, max-age=60');
-    response.send(Buffer.from(wav.bytes));
+    response.send(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength));
   });
 
   router.get('/presets/:id/download', async (request, response) => {
