@@ -26,6 +26,11 @@ export interface ServerConfig {
   allowedOrigins?: string[];
   /** DEV_MAILBOX_REMOTE=true: the local mailbox answers other machines too (a demo opt-in; never in production). */
   mailboxRemote?: boolean;
+  /**
+   * The local mailbox is not served at all: the server listens on an address other machines can
+   * reach (HOST not loopback) and DEV_MAILBOX_REMOTE is not set. Mail still goes to it, unread.
+   */
+  mailboxOff?: boolean;
   /** Per-account limits (sign-in failures, password checks, invitation mails); defaults in LIMITS. */
   accountRateLimits?: Partial<AccountRateLimits>;
 }

@@ -30,10 +30,15 @@ export async function startServer(options: { serveClient: boolean }): Promise<{ 
   }
 
   const mailbox = process.env.SMTP_URL ? null : await startFakeSmtpServer();
-  const mailer = createSmtpMailer(process.env.SMTP_URL ?? (mailbox as NonNullable<typeof mailbox>).smtpUrl, MAIL_FROM);
+  const mailer = createSmtpMailer(process.env.SMTP_URL || (mailbox as NonNullable<typeof mailbox>).smtpUrl, MAIL_FROM);
   if (mailbox && config.mailboxRemote) {
     log('!!! WARNING: DEV_MAILBOX_REMOTE=true: the local mailbox at /dev/mailbox answers ANY client that can reach this server.');
     log('!!! It holds password-reset and invitation links: anyone who reads it can take over accounts. Use it only for a demo on a trusted network.');
+  } else if (mailbox && !isLoopbackHost(host)) {
+    // Bound where other machines can reach it: a proxy on this machine would make every visitor look local.
+    config.mailboxOff = true;
+    log(`!!! WARNING: no SMTP_URL and HOST=${host} (reachable from other machines): e-mail goes to a local mailbox that is NOT served, so reset and invitation links cannot be read.`);
+    log('!!! Set SMTP_URL for real mail, or DEV_MAILBOX_REMOTE=true for a demo on a trusted network.');
   } else if (mailbox) {
     log('No SMTP_URL: e-mail goes to the local mailbox at /dev/mailbox, readable from this machine only');
   }

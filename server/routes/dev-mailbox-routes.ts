@@ -16,7 +16,8 @@ import type { FakeMailbox } from '../mail/fake-smtp-server';
 export function devMailboxRoutes(context: AppContext, mailbox: FakeMailbox): Router {
   const api = Router();
   api.get('/dev/mailbox', (request, response) => {
-    if (!context.config.mailboxRemote && !isLocalRequest(request)) {
+    const served = context.config.mailboxRemote || (!context.config.mailboxOff && isLocalRequest(request));
+    if (!served) {
       throw new ApiError(404, 'not_found', `No API route ${request.method} ${request.originalUrl}`);
     }
     response.setHeader('Cache-Control', 'no-store');

@@ -142,6 +142,18 @@ describe('a server open to other machines (HOST=0.0.0.0)', () => {
     expect(remote.whole).not.toContain(resetToken);
   });
 
+  it('is not served at all, even to this machine, by a server bound where other machines reach it (main.ts sets mailboxOff)', async () => {
+    server.context.config.mailboxOff = true;
+    try {
+      const local = await rawGet(url());
+      expect(local.status).toBe(404);
+      expect(local.whole).not.toContain(resetToken);
+    } finally {
+      server.context.config.mailboxOff = false;
+    }
+    expect((await rawGet(url())).status).toBe(200);
+  });
+
   it('serves other machines only with the explicit opt-in (DEV_MAILBOX_REMOTE=true)', async () => {
     server.context.config.mailboxRemote = true;
     const proxied = await rawGet(url(), { 'X-Forwarded-For': '203.0.113.9' });
