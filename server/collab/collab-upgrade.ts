@@ -17,8 +17,9 @@ function refuse(socket: Duplex, status: number, reason: string): void {
 
 /**
  * Who may open a session's document: a signed-in member of the session's studio (token from the
- * cookie, or `?token=` for scripts and tests). Unknown, foreign and archived sessions are refused
- * before the upgrade completes. Producers and listeners connect read-only.
+ * cookie, or `?token=` for scripts and tests). Unknown and foreign sessions are refused
+ * before the upgrade completes. Producers and listeners connect read-only, and so does everyone
+ * to an archived session (it can be watched and heard, not changed, until it is restored).
  */
 export async function authorizeCollabUpgrade(context: AppContext, request: IncomingMessage) {
   const url = new URL(request.url ?? '/', 'http://localhost');
@@ -28,7 +29,6 @@ export async function authorizeCollabUpgrade(context: AppContext, request: Incom
   const access = token ? await new AccessLookup(context).sessionAccess(token, sessionId) : null;
   if (!token || !access || (!access.ok && access.reason === 'signed-out')) return { ok: false as const, status: 401, reason: 'Unauthorized' };
   if (!access.ok) return { ok: false as const, status: 404, reason: 'Not Found' };
-  if (access.archived) return { ok: false as const, status: 410, reason: 'Gone' };
   // Presence shows the name the server knows, never one the browser claims.
   const user = await context.dataSource.getRepository(User).findOne({ where: { id: access.userId }, select: { id: true, displayName: true } });
   return { ok: true as const, sessionId, token, userId: access.userId, studioId: access.studioId, role: access.role, readOnly: access.readOnly, displayName: user?.displayName ?? 'someone' };

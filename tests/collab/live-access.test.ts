@@ -145,8 +145,9 @@ describe('live access follows changes of role and state', () => {
     expect(listener.getSnapshot().readOnly).toBe(true);
 
     await as(server.app, fixture.members.lead.token).patch(`/api/studios/${fixture.studioId}/members/${fixture.members.listener.id}`).send({ role: 'designer' }).expect(200);
-    await waitForSnapshot(listener, (s) => !s.readOnly && s.notice?.message === LIVE_ACCESS_MESSAGES.writableRole, WITHIN_MS, 'listener told it may edit');
-    await waitForSnapshot(listener, (s) => s.synced && s.role === 'designer', 5000, 'fresh document with the new role');
+    const oldDoc = listener.doc;
+    await waitForSnapshot(listener, (s) => s.notice?.message === LIVE_ACCESS_MESSAGES.writableRole, WITHIN_MS, 'listener told it may edit');
+    await waitForSnapshot(listener, (s) => listener.doc !== oldDoc && s.synced && !s.readOnly && s.role === 'designer', 5000, 'fresh document with the new role');
     expect(listener.edit((doc) => patchDoc(doc).string.set('tensionN', 71.25))).toBe(true);
     await waitForSnapshot(lead, (s) => s.patch?.string.tensionN === 71.25, 5000, 'lead sees the promoted edit');
     expect(await storedTensionN(fixture)).toBe(71.25);
@@ -196,13 +197,19 @@ describe('live access follows changes of role and state', () => {
     await afterAllSentBy(designer, lead, 0.333);
     expect(lead.getSnapshot().patch?.string.tensionN).toBe(before);
     expect(await storedTensionN(fixture)).toBe(before);
+    // Someone opening the archived session now (or reconnecting) can watch and listen, read-only.
+    const late = client(fixture, 'designer');
+    const opened = await waitForSnapshot(late, (s) => s.synced && s.readOnly && s.patch !== null, 5000, 'late visitor reads the archived session');
+    expect(opened.patch?.string.tensionN).toBe(before);
+    late.destroy();
 
     await as(server.app, fixture.members.lead.token).patch(`/api/sessions/${fixture.sessionId}`).send({ archived: false }).expect(200);
-    await waitForSnapshot(designer, (s) => !s.readOnly && s.notice?.message === LIVE_ACCESS_MESSAGES.writableRestored, WITHIN_MS, 'designer told restored');
-    await waitForSnapshot(designer, (s) => s.synced, 5000, 'designer synced again');
+    const archivedDoc = designer.doc;
+    await waitForSnapshot(designer, (s) => s.notice?.message === LIVE_ACCESS_MESSAGES.writableRestored, WITHIN_MS, 'designer told restored');
+    await waitForSnapshot(designer, (s) => designer.doc !== archivedDoc && s.synced && !s.readOnly, 5000, 'designer synced again, writable');
     // The refused write was dropped with the old document: the designer shows the server's copy.
     await waitForSnapshot(designer, (s) => s.patch?.string.tensionN === before, 5000, 'designer back on the server copy');
-    designer.edit((doc) => patchDoc(doc).string.set('tensionN', 66.5));
+    expect(designer.edit((doc) => patchDoc(doc).string.set('tensionN', 66.5))).toBe(true);
     await waitForSnapshot(lead, (s) => s.patch?.string.tensionN === 66.5, 5000, 'lead sees the edit after restore');
   });
 
@@ -226,13 +233,11 @@ describe('live access follows changes of role and state', () => {
     expect(again.getSnapshot().readOnly).toBe(false);
   });
 
-  it('signing out (token on the deny-list) closes that token’s live connections when the change is published', async () => {
+  it('signing out (token on the deny-list) closes that token’s live connections at once (the sign-out route publishes the change)', async () => {
     const fixture = await freshStudio();
     const designer = client(fixture, 'designer');
     await synced(designer, 'designer');
     await as(server.app, fixture.members.designer.token).post('/api/auth/logout').expect(204);
-    // The sign-out route's own publish is another change under way; until it lands, publish what it will.
-    server.context.access.publish({ kind: 'user', userId: fixture.members.designer.id, reason: 'signed-out' });
     const ended = await waitForSnapshot(designer, (s) => s.accessEnded !== null, WITHIN_MS, 'signed-out connection closed');
     expect(ended.accessEnded).toMatchObject({ reason: 'signed-out', code: LIVE_CLOSE_CODES.accessRevoked });
   });

@@ -287,7 +287,10 @@ export class SessionConnection {
         this.update({ readOnly: true, notice: { tone: 'caution', message: notice.message } });
         return this.resubscribe();
       case 'writable':
-        this.update({ readOnly: false, readOnlyReason: null, notice: { tone: 'info', message: notice.message } });
+        // The server closes the document's socket (roleChanged) and the document starts afresh; the
+        // compute channel's `joined` answer then lifts read-only. Lifting it here would let an edit
+        // land in the old document, which the server still treats as read-only.
+        this.update({ readOnlyReason: null, notice: { tone: 'info', message: notice.message } });
         return this.resubscribe();
       case 'not-saving':
         return this.update({ notice: { tone: 'caution', message: notice.message } });
@@ -336,7 +339,8 @@ export class SessionConnection {
 
   /** Runs an edit of the document as this person's (undoable) change. Refused when read-only. */
   edit(change: (doc: Y.Doc, origin: symbol) => void): boolean {
-    if (this.snapshot.readOnly) return false;
+    // Before the first sync (and after a fresh start) the document is empty: there is nothing to edit yet.
+    if (this.snapshot.readOnly || !this.snapshot.synced) return false;
     this.doc.transact(() => change(this.doc, this.localOrigin), this.localOrigin);
     return true;
   }
