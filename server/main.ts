@@ -6,6 +6,7 @@ import { startFakeSmtpServer } from './mail/fake-smtp-server';
 import { createSmtpMailer } from './mail/mailer';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from './seed/demo-seed';
 import { createTautlineServer } from './http-server';
+import { RendersDirError } from './renders/renders-dir';
 import { inProcessAccessEvents } from './access/access-events';
 
 const MAIL_FROM = 'Tautline <no-reply@tautline.local>';
@@ -72,4 +73,18 @@ export async function startServer(options: { serveClient: boolean }): Promise<{ 
   return { server, close };
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) await startServer({ serveClient: false });
+/**
+ * Starts the server, or ends the process with one plain line and exit code 1 when a setting makes
+ * starting impossible (an unusable RENDERS_DIR), instead of a stack trace.
+ */
+export async function startServerOrExit(options: { serveClient: boolean }): Promise<void> {
+  try {
+    await startServer(options);
+  } catch (error) {
+    if (!(error instanceof RendersDirError)) throw error;
+    process.stderr.write(`Tautline cannot start: ${error.message}\n`);
+    process.exit(1);
+  }
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) await startServerOrExit({ serveClient: false });

@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { build } from 'vite';
 import { CLIENT_DIST_DIR } from './config';
-import { startServer } from './main';
+import { startServerOrExit } from './main';
 
 const ROOT = fileURLToPath(new URL('../', import.meta.url));
 
@@ -37,4 +37,4 @@ if (process.env.TAUTLINE_EXIT_WITH_STDIN === '1') {
   process.stdin.on('end', () => process.kill(process.pid, 'SIGTERM'));
   process.stdin.resume();
 }
-await startServer({ serveClient: true });
+await startServerOrExit({ serveClient: true });

@@ -133,7 +133,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
         if (!access.ok) return access.reason === 'signed-out' ? refuse(sessionId, 'unauthenticated', LIVE_ACCESS_MESSAGES['signed-out']) : refuse(sessionId, 'not_found', 'Session not found');
         await socket.join(roomOf(sessionId));
         subscribedOf(socket).set(sessionId, { studioId: access.studioId, readOnly: access.readOnly, role: access.role });
-        socket.emit(COMPUTE_EVENTS.joined, { type: 'joined', sessionId, role: access.role, readOnly: access.readOnly } satisfies JoinedMessage);
+        socket.emit(COMPUTE_EVENTS.joined, { type: 'joined', sessionId, role: access.role, readOnly: access.readOnly, archived: access.archived } satisfies JoinedMessage);
         const entry = computeFor(sessionId);
         if (entry.latest && !entry.scheduler.busy) socket.emit(entry.latest.type === 'result' ? COMPUTE_EVENTS.result : COMPUTE_EVENTS.invalid, entry.latest);
         else entry.scheduler.schedule();

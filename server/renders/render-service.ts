@@ -12,7 +12,7 @@ import { renderWavFile } from './render-job-runner';
 import { renderNoteSet } from './note-set-runner';
 import { PresetPreviews } from './preset-previews';
 import { RenderTaskPool, TaskCancelledError } from './render-task-pool';
-import { ensureRendersDir, exitCleanlyIfUncaught, RendersDirError } from './renders-dir';
+import { ensureRendersDir } from './renders-dir';
 
 const ACTIVE: RenderState[] = ['queued', 'rendering'];
 
@@ -45,12 +45,7 @@ export class RenderService {
     private readonly context: AppContext,
     pool?: RenderTaskPool,
   ) {
-    try {
-      ensureRendersDir(context.config.rendersDir);
-    } catch (error) {
-      if (error instanceof RendersDirError) exitCleanlyIfUncaught(error);
-      throw error;
-    }
+    ensureRendersDir(context.config.rendersDir);
     this.pool = pool ?? new RenderTaskPool();
     this.previews = new PresetPreviews(this.pool);
     this.ready = this.recover();

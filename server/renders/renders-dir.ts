@@ -32,21 +32,3 @@ function reasonOf(error: unknown): string {
   if (code === 'EROFS') return 'the file system is read-only';
   return (error as Error).message;
 }
-
-/**
- * Ends the process with the error's one line and exit code 1 when it reaches the top level uncaught
- * (the server's start), instead of a stack trace. Only this error: anything else is left to Node,
- * and the hook is removed on the next turn of the event loop if the error was caught.
- */
-export function exitCleanlyIfUncaught(error: RendersDirError): void {
-  if (process.hasUncaughtExceptionCaptureCallback()) return;
-  process.setUncaughtExceptionCaptureCallback((uncaught) => {
-    if (uncaught === error) {
-      process.stderr.write(`Tautline cannot start: ${error.message}\n`);
-      process.exit(1);
-    }
-    process.setUncaughtExceptionCaptureCallback(null);
-    throw uncaught;
-  });
-  setImmediate(() => process.setUncaughtExceptionCaptureCallback(null)).unref();
-}

@@ -2,7 +2,7 @@ import type { Role } from '../access/roles';
 import type { FieldIssue } from '../patch/field-issue';
 
 /** Bumped whenever an event or payload below changes shape. */
-export const PROTOCOL_VERSION = 1;
+export const PROTOCOL_VERSION = 2;
 
 /** socket.io event names of the compute channel; nothing spells them as loose strings. */
 export const COMPUTE_EVENTS = {
@@ -25,6 +25,8 @@ export interface JoinedMessage {
   sessionId: string;
   role: Role;
   readOnly: boolean;
+  /** The session is archived: read-only for everyone until it is restored. */
+  archived: boolean;
 }
 
 /**

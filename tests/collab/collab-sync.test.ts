@@ -178,7 +178,7 @@ describe('undo of a drag', () => {
 });
 
 describe('who may connect', () => {
-  it('refuses no token and bad tokens (401), foreign and unknown sessions (404), archived ones (410); members connect', async () => {
+  it('refuses no token and bad tokens (401), foreign and unknown sessions (404); members connect, to archived sessions too (read-only)', async () => {
     expect(await rawUpgrade(`/collab/${fixture.sessionId}`)).toEqual({ status: 401 });
     expect(await rawUpgrade(`/collab/${fixture.sessionId}?token=forged.token.value`)).toEqual({ status: 401 });
     const outsider = await registerUser(server.app, 'gannet-lead@gannet-rock.example', 'Gannet Lead');
@@ -186,7 +186,7 @@ describe('who may connect', () => {
     expect(await rawUpgrade(`/collab/no-such-session?token=${fixture.members.lead.token}`)).toEqual({ status: 404 });
     const archived = await as(server.app, fixture.members.lead.token).post(`/api/studios/${fixture.studioId}/sessions`).send({ name: 'Old draft' });
     await as(server.app, fixture.members.lead.token).patch(`/api/sessions/${archived.body.session.id}`).send({ archived: true });
-    expect(await rawUpgrade(`/collab/${archived.body.session.id}?token=${fixture.members.lead.token}`)).toEqual({ status: 410 });
+    expect(await rawUpgrade(`/collab/${archived.body.session.id}?token=${fixture.members.lead.token}`)).toEqual({ open: true });
     expect(await rawUpgrade(`/collab/${fixture.sessionId}?token=${fixture.members.listener.token}`)).toEqual({ open: true });
     expect(await rawUpgrade(`/collab/${fixture.sessionId}`, { Cookie: `tautline_token=${fixture.members.designer.token}` })).toEqual({ open: true });
     expect(await rawUpgrade(`/elsewhere?token=${fixture.members.lead.token}`)).toEqual({ status: 404 });

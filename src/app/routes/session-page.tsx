@@ -66,10 +66,13 @@ export default function SessionPage() {
   const location = useLocation();
   const queryClient = useQueryClient();
   const endedReason = snapshot?.accessEnded?.reason;
+  const liveRole = snapshot?.role;
   useEffect(() => {
-    // Signed out: ask who is signed in. A 401 clears it, and the signed-in layout returns to sign-in (with ?next=).
-    if (endedReason === 'signed-out' || endedReason === 'account-deleted') void queryClient.invalidateQueries({ queryKey: ['me'] });
-  }, [endedReason, queryClient]);
+    // Ask who is signed in, and in which studios with which roles, whenever the server changes either:
+    // the header's studio list follows, and when signed out a 401 clears it and the signed-in layout
+    // returns to sign-in (with ?next=).
+    if (endedReason || liveRole) void queryClient.invalidateQueries({ queryKey: ['me'] });
+  }, [endedReason, liveRole, queryClient]);
   const [canvasBox, widthPx] = useContainerWidth<HTMLDivElement>(800);
   const dark = useDarkTheme();
   const [selected, setSelected] = useState<CanvasSelection | null>(null);
@@ -171,7 +174,7 @@ export default function SessionPage() {
       <section aria-label="People here" className="flex flex-wrap items-center gap-2 text-sm">
         <span className="font-semibold">Here:</span>
         <span className="inline-flex items-center gap-1">
-          <span className="size-2.5 rounded-full" style={{ background: colourFor(name) }} aria-hidden="true" /> {name} (you{snapshot.role ? `, ${snapshot.role}` : ''})
+          <span className="size-2.5 rounded-full" style={{ background: colourFor(name) }} aria-hidden="true" /> {name} (you{snapshot.role && !snapshot.accessEnded ? `, ${snapshot.role}` : ''})
         </span>
         {snapshot.peers.map((peer) => (
           <span key={peer.clientId} className="inline-flex items-center gap-1" data-testid="peer">

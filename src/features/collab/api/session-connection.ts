@@ -191,7 +191,7 @@ export class SessionConnection {
     this.socket.on('connect', () => this.socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId: options.sessionId }));
     this.socket.on(COMPUTE_EVENTS.joined, (message: JoinedMessage) => {
       if (this.snapshot.accessEnded) return;
-      this.update({ role: message.role, readOnly: message.readOnly, refused: null });
+      this.update({ role: message.role, readOnly: message.readOnly, readOnlyReason: message.archived ? LIVE_ACCESS_MESSAGES.readOnlyArchived : null, refused: null });
       const current = this.provider.awareness.getLocalState() as Presence | null;
       if (current) this.provider.awareness.setLocalState({ ...current, role: message.role });
     });

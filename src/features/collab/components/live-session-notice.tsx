@@ -32,7 +32,10 @@ export function LiveSessionNotice({ snapshot, here, studioHref, onReopen }: Live
     return (
       <div data-testid="live-access-ended" data-reason={accessEnded.reason}>
         <Notice tone="error" title={ENDED_TITLES[accessEnded.reason]}>
-          <p>{accessEnded.message}. The page shows the session as it was; nothing you do here is saved.</p>
+          <p>
+            {accessEnded.reason === 'signed-out' || accessEnded.reason === 'closed' ? `${accessEnded.message}. ` : ''}
+            The page shows the session as it was; nothing you do here is saved.
+          </p>
           <p className="mt-2 flex flex-wrap items-center gap-3">
             {accessEnded.reason === 'signed-out' ? (
               <>
