@@ -1,4 +1,3 @@
-import WebSocket from 'ws';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { movePoint, setLengthM } from '../../shared/collab/point-edits';
 import { patchDoc } from '../../shared/collab/patch-doc';
@@ -7,6 +6,7 @@ import { as, registerUser, startLiveTestServer, type LiveTestServer } from '../s
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { eventually, openClient, waitForSnapshot } from '../support/collab-client';
 import type { SessionConnection } from '../../src/features/collab/api/session-connection';
+import { websocketUpgradeStatus } from '../support/websocket-upgrade';
 
 let server: LiveTestServer;
 let fixture: StudioFixture;
@@ -30,19 +30,9 @@ function client(role: keyof StudioFixture['members'], sessionId = fixture.sessio
 const docJson = (connection: SessionConnection) => JSON.stringify(connection.doc.toJSON());
 
 /** Opens a raw websocket to the collaboration endpoint and reports how the upgrade ended. */
-function rawUpgrade(path: string, headers: Record<string, string> = {}): Promise<{ status: number } | { open: true }> {
-  return new Promise((resolve) => {
-    const socket = new WebSocket(`${server.baseUrl.replace('http', 'ws')}${path}`, { headers });
-    socket.on('unexpected-response', (_request, response) => {
-      resolve({ status: response.statusCode ?? 0 });
-      socket.terminate();
-    });
-    socket.on('open', () => {
-      resolve({ open: true });
-      socket.close();
-    });
-    socket.on('error', () => undefined);
-  });
+async function rawUpgrade(path: string, headers: Record<string, string> = {}): Promise<{ status: number } | { open: true }> {
+  const status = await websocketUpgradeStatus(`${server.baseUrl.replace('http', 'ws')}${path}`, { headers });
+  return status === 101 ? { open: true } : { status };
 }
 
 describe('shared session document', () => {

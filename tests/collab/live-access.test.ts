@@ -10,6 +10,7 @@ import type { SessionConnection } from '../../src/features/collab/api/session-co
 import { eventually, openClient, waitForSnapshot } from '../support/collab-client';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { as, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-server';
+import { websocketUpgradeStatus } from '../support/websocket-upgrade';
 
 /**
  * Live access follows every change of role and state: over real websockets and socket.io to the
@@ -274,12 +275,7 @@ describe('live access follows changes of role and state', () => {
     expect(logLines.slice(linesBefore).filter((line) => /session|FOREIGN|constraint/i.test(line))).toEqual([]);
     expect(await server.dataSource.query(`SELECT COUNT(*) AS n FROM session_updates WHERE "sessionId" = ?`, [fixture.sessionId])).toEqual([{ n: 0 }]);
     // A late connection is refused like any unknown session.
-    const late = await new Promise<number>((resolve) => {
-      const socket = new WebSocket(`${baseUrl.replace('http', 'ws')}/collab/${fixture.sessionId}?token=${fixture.members.lead.token}`);
-      socket.on('unexpected-response', (_request, response) => resolve(response.statusCode ?? 0));
-      socket.on('open', () => resolve(101));
-      socket.on('error', () => undefined);
-    });
+    const late = await websocketUpgradeStatus(`${baseUrl.replace('http', 'ws')}/collab/${fixture.sessionId}?token=${fixture.members.lead.token}`);
     expect(late).toBe(404);
   });
 

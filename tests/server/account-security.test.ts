@@ -1,7 +1,6 @@
 import { createServer, type Server } from 'node:net';
 import jwt from 'jsonwebtoken';
 import request from 'supertest';
-import WebSocket from 'ws';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { AccessChange } from '../../server/access/access-events';
 import { createSmtpMailer } from '../../server/mail/mailer';
@@ -9,6 +8,7 @@ import { REGISTER_REFUSED } from '../../server/routes/auth-routes';
 import { LIMITS } from '../../shared/limits';
 import { as, registerUser, rowCount, startLiveTestServer, startTestServer, TEST_PASSWORD, type LiveTestServer, type TestServer } from '../support/test-server';
 import { createStudioFixture } from '../support/studio-fixture';
+import { websocketUpgradeStatus } from '../support/websocket-upgrade';
 
 let server: TestServer;
 beforeAll(async () => {
@@ -199,18 +199,7 @@ describe('sign-out and live connections', () => {
     const fixture = await createStudioFixture(live, 'out');
     const token = fixture.members.designer.token;
     await as(live.app, token).post('/api/auth/logout');
-    const status = await new Promise<number>((resolve) => {
-      const socket = new WebSocket(`${live.baseUrl.replace('http', 'ws')}/collab/${fixture.sessionId}?token=${token}`);
-      socket.on('unexpected-response', (_request, response) => {
-        resolve(response.statusCode ?? 0);
-        socket.terminate();
-      });
-      socket.on('open', () => {
-        resolve(101);
-        socket.close();
-      });
-      socket.on('error', () => undefined);
-    });
+    const status = await websocketUpgradeStatus(`${live.baseUrl.replace('http', 'ws')}/collab/${fixture.sessionId}?token=${token}`);
     expect(status).toBe(401);
   });
 });

@@ -7,6 +7,7 @@ import { estimateFrequencyHz } from '../support/pitch-estimate';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { testPatch } from '../support/patches';
 import { as, startTestServer, type TestServer } from '../support/test-server';
+import { binaryBody } from '../support/binary-body';
 
 /**
  * A multi-note set through the real API and worker threads: Kestrel Lantern Audio turns the
@@ -29,11 +30,7 @@ async function zipOf(renderId: string): Promise<JSZip> {
   const response = await as(server.app, studio.members.producer.token)
     .get(`/api/renders/${renderId}/file`)
     .buffer(true)
-    .parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (chunk: Buffer) => chunks.push(chunk));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+    .parse(binaryBody);
   expect(response.status).toBe(200);
   expect(response.headers['content-type']).toBe('application/zip');
   return JSZip.loadAsync(response.body as Buffer);

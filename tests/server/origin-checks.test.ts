@@ -1,11 +1,11 @@
 import { request as httpRequest } from 'node:http';
 import { io as connectSocket } from 'socket.io-client';
 import request from 'supertest';
-import WebSocket from 'ws';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ownOrigins } from '../../server/http/request-origin';
 import { as, rowCount, startLiveTestServer, TEST_PASSWORD, type LiveTestServer } from '../support/test-server';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
+import { websocketUpgradeStatus } from '../support/websocket-upgrade';
 
 const FOREIGN = 'https://prank-pages.example';
 let server: LiveTestServer;
@@ -17,21 +17,8 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-/** A websocket upgrade to the collaboration endpoint with the given Origin; how it ended. */
-function collabUpgrade(path: string, origin?: string): Promise<number> {
-  return new Promise((resolve) => {
-    const socket = new WebSocket(`${server.baseUrl.replace('http', 'ws')}${path}`, origin ? { origin } : {});
-    socket.on('unexpected-response', (_request, response) => {
-      resolve(response.statusCode ?? 0);
-      socket.terminate();
-    });
-    socket.on('open', () => {
-      resolve(101);
-      socket.close();
-    });
-    socket.on('error', () => undefined);
-  });
-}
+/** A websocket upgrade to the collaboration endpoint with the given Origin; how it ended (101 or the status). */
+const collabUpgrade = (path: string, origin?: string) => websocketUpgradeStatus(`${server.baseUrl.replace('http', 'ws')}${path}`, { origin });
 
 /** A socket.io connection over websocket only, with the given Origin: 'connected' or the error. */
 function computeChannel(origin?: string): Promise<string> {

@@ -4,6 +4,7 @@ import { AUDITION_PEAK_DBFS } from '../../shared/audio/wav-format';
 import { LIMITS } from '../../shared/limits';
 import { testPatch } from '../support/patches';
 import { as, registerUser, startTestServer, type TestServer } from '../support/test-server';
+import { binaryBody } from '../support/binary-body';
 
 let server: TestServer;
 let lead: { token: string };
@@ -20,11 +21,7 @@ afterAll(() => server.close());
 
 describe('preset audition preview', () => {
   it('is a short 16-bit WAV at no more than 48 kHz, peaking at the audition level', async () => {
-    const response = await as(server.app, lead.token).get(`/api/presets/${presetId}/preview.wav`).buffer(true).parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (chunk: Buffer) => chunks.push(chunk));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+    const response = await as(server.app, lead.token).get(`/api/presets/${presetId}/preview.wav`).buffer(true).parse(binaryBody);
     expect(response.status).toBe(200);
     expect(response.headers['content-type']).toBe('audio/wav');
     const bytes = response.body as Buffer;
@@ -53,11 +50,7 @@ describe('preset audition preview', () => {
       as(server.app, lead.token)
         .get(`/api/presets/${id}/preview.wav`)
         .buffer(true)
-        .parse((res, done) => {
-          const chunks: Buffer[] = [];
-          res.on('data', (chunk: Buffer) => chunks.push(chunk));
-          res.on('end', () => done(null, Buffer.concat(chunks)));
-        });
+        .parse(binaryBody);
     const auditions = ids.map((id) => wav(id).then((response) => (finished.push(`preview ${id}`), response)));
     // Give the requests a moment to reach the server and start rendering.
     await new Promise((resolve) => setTimeout(resolve, 50));

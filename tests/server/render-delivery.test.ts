@@ -14,6 +14,7 @@ import { estimateFrequencyHz } from '../support/pitch-estimate';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { testPatch, validPatch } from '../support/patches';
 import { as, startTestServer, type TestServer } from '../support/test-server';
+import { binaryBody } from '../support/binary-body';
 
 /**
  * Delivered files as a producer checks them with independent tools (wav-decoder, JSZip, an FFT
@@ -47,11 +48,7 @@ async function bytesOf(renderId: string): Promise<Buffer> {
   const response = await as(server.app, studio.members.producer.token)
     .get(`/api/renders/${renderId}/file`)
     .buffer(true)
-    .parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (chunk: Buffer) => chunks.push(chunk));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+    .parse(binaryBody);
   expect(response.status).toBe(200);
   return response.body as Buffer;
 }

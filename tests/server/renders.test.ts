@@ -8,6 +8,7 @@ import { Render } from '../../server/db/entities/render';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { testPatch } from '../support/patches';
 import { as, registerUser, rowCount, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-server';
+import { binaryBody } from '../support/binary-body';
 
 /**
  * Render jobs through the real API, on a real SQLite file and the real worker threads. Invented
@@ -46,11 +47,7 @@ async function download(token: string, renderId: string, query = ''): Promise<{ 
   const response = await as(server.app, token)
     .get(`/api/renders/${renderId}/file${query}`)
     .buffer(true)
-    .parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (chunk: Buffer) => chunks.push(chunk));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+    .parse(binaryBody);
   return { status: response.status, bytes: response.body as Buffer, type: String(response.headers['content-type']), disposition: response.headers['content-disposition'] };
 }
 
