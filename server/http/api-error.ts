@@ -1,9 +1,9 @@
 import type { Action } from '../../shared/access/roles';
 import { ACTION_REASONS } from '../../shared/access/roles';
-import type { ApiErrorBody, ApiErrorCode } from '../../shared/api/error-body';
+import { apiErrorBody, type ApiErrorBody, type ApiErrorCode } from '../../shared/api/error-body';
 import type { FieldIssue } from '../../shared/patch/field-issue';
 
-/** An expected failure of a request: becomes `{ error: { code, message, field?, issues? } }` with its status. */
+/** An expected failure of a request: becomes `{ error: { code, message, field?, issues? } }` with its status (see apiErrorBody). */
 export class ApiError extends Error {
   constructor(
     readonly status: number,
@@ -16,15 +16,9 @@ export class ApiError extends Error {
     this.name = 'ApiError';
   }
 
+  /** The response body: whenever a field is blamed (always on 400 and 422), `issues` lists every problem, even a single one. */
   body(): ApiErrorBody {
-    return {
-      error: {
-        code: this.code,
-        message: this.message,
-        ...(this.field ? { field: this.field } : {}),
-        ...(this.issues && this.issues.length > 1 ? { issues: this.issues } : {}),
-      },
-    };
+    return apiErrorBody(this.status, this.code, this.message, this.field, this.issues);
   }
 }
 

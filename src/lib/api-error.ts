@@ -17,10 +17,8 @@ export class ApiRequestError extends Error {
   static fromBody(status: number, body: unknown): ApiRequestError {
     const error = (body as Partial<ApiErrorBody> | null)?.error;
     if (!error) return new ApiRequestError(status, 'internal', `The server answered ${status}`);
-    // A single blamed field comes as `<field> <problem>`; keep the problem so it reads well beside the field.
-    const problem = error.field && error.message.startsWith(`${error.field} `) ? error.message.slice(error.field.length + 1) : error.message;
-    const issues = error.issues ?? (error.field ? [{ field: error.field, problem, got: null, message: error.message }] : []);
-    return new ApiRequestError(status, error.code, error.message, error.field, issues);
+    // The server lists every field problem under `issues`, a single one too; nothing is read out of the message.
+    return new ApiRequestError(status, error.code, error.message, error.field, Array.isArray(error.issues) ? error.issues : []);
   }
 
   /** The message to show beside one field, if the server blamed it. */

@@ -3,6 +3,7 @@ import { render } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { createMemoryRouter, RouterProvider, type RouteObject } from 'react-router-dom';
 import { vi } from 'vitest';
+import { apiErrorBody, type ApiErrorCode } from '../../../shared/api/error-body';
 import type { MeResponse, MemberView, StudioSummary } from '../../../shared/api/responses';
 import { createQueryClient } from '../../../src/lib/query-client';
 
@@ -22,9 +23,10 @@ export interface FakeAnswer {
 }
 export type FakeRoute = FakeAnswer | ((request: FakeRequest) => FakeAnswer | Promise<FakeAnswer>);
 
-export const apiError = (status: number, code: string, message: string, field?: string): FakeAnswer => ({
+/** An error answer shaped exactly as the server's (apiErrorBody: a blamed field always comes with its `issues`). */
+export const apiError = (status: number, code: ApiErrorCode, message: string, field?: string): FakeAnswer => ({
   status,
-  body: { error: { code, message, ...(field ? { field } : {}) } },
+  body: apiErrorBody(status, code, message, field),
 });
 
 export function fakeApi(routes: Record<string, FakeRoute>) {

@@ -38,10 +38,11 @@ describe('presets page: uploading a patch file', () => {
     expect(presetNamesInTable()).toHaveLength(3);
   });
 
-  it('shows a single server problem too (the body then has field but no issues)', async () => {
+  it('shows a single server problem from its one-item issues list', async () => {
+    const broken = { field: 'file', problem: 'broken.json is not valid JSON: Unexpected end of JSON input', got: null, message: 'file broken.json is not valid JSON: Unexpected end of JSON input' };
     const { user } = renderPresetsPage({
       role: 'lead',
-      upload: { status: 400, body: { error: { code: 'invalid', message: 'file broken.json is not valid JSON: Unexpected end of JSON input', field: 'file' } } },
+      upload: { status: 400, body: { error: { code: 'invalid', message: broken.message, field: broken.field, issues: [broken] } } },
     });
     await findPresetRow('Kelp-Line Nylon');
     await user.upload(screen.getByLabelText('Patch JSON file'), new File(['{"name":'], 'broken.json', { type: 'application/json' }));

@@ -127,15 +127,16 @@ describe('renders page: the new-render form', () => {
     expect(screen.queryByText('The render was not started')).toBeNull();
   });
 
-  it('shows a single server problem too (field without issues)', async () => {
+  it('shows a single server problem from its one-item issues list, the problem read from the issue', async () => {
+    const fade = { field: 'output.length.fadeMs', problem: 'must be <= 500', got: '900', message: 'output.length.fadeMs must be <= 500, got 900' };
     const { user } = renderRendersPage({
       role: 'lead',
-      handlers: { [`POST ${LIST_PATH}`]: () => ({ status: 400, body: { error: { code: 'invalid', message: 'output.length.fadeMs must be <= 500, got 900', field: 'output.length.fadeMs' } } }) },
+      handlers: { [`POST ${LIST_PATH}`]: () => ({ status: 400, body: { error: { code: 'invalid', message: fade.message, field: fade.field, issues: [fade] } } }) },
     });
     const form = await findRenderForm();
     await user.selectOptions(within(form).getByRole('combobox', { name: 'Source' }), 'Kelp-Line Nylon');
     await user.click(within(form).getByRole('button', { name: 'Start render' }));
-    await waitFor(() => expect(errorOf(field(form, 'Fade (ms)'))).toBe('Must be <= 500, got 900'));
+    await waitFor(() => expect(errorOf(field(form, 'Fade (ms)'))).toBe('Must be <= 500'));
   });
 
   it('shows why a full studio cannot start a render (409)', async () => {
