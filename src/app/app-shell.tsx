@@ -3,7 +3,7 @@ import { NavLink, useNavigate, useParams } from 'react-router-dom';
 import type { MeResponse } from '../../shared/api/responses';
 import { can } from '../../shared/access/roles';
 import { ThemeToggle } from '../components/theme-toggle';
-import { MasterVolume } from '../features/audition/components/master-volume';
+import { MasterVolume } from '../components/master-volume';
 import { useSignOut } from '../features/auth/api/sign-out';
 import { currentStudio, rememberStudio } from '../features/studios/current-studio';
 

@@ -17,7 +17,7 @@ import { tensionForPitchN } from '../../shared/designer/tension-for-pitch';
 import { modeWavenumber } from '../../shared/engine/mode-frequencies';
 import { defaultPatch } from '../../shared/patch/default-patch';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
-import { SessionConnection } from '../../src/features/collab/api/session-connection';
+import { SessionConnection } from '../../src/lib/live-session/session-connection';
 import { api, logIn } from './bench-api';
 
 // Each y-websocket provider registers a process exit listener; sixteen of them are expected here.

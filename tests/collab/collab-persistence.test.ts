@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { movePoint } from '../../shared/collab/point-edits';
 import { patchDoc } from '../../shared/collab/patch-doc';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
-import type { SessionConnection } from '../../src/features/collab/api/session-connection';
+import type { SessionConnection } from '../../src/lib/live-session/session-connection';
 import { eventually, openClient, waitForSnapshot } from '../support/collab-client';
 import { PROJECT_ROOT } from '../support/run-cli';
 import { createStudioFixture } from '../support/studio-fixture';

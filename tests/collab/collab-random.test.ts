@@ -3,7 +3,7 @@ import { deletePoint, insertPoint, movePoint } from '../../shared/collab/point-e
 import { patchDoc } from '../../shared/collab/patch-doc';
 import { validatePatch } from '../../shared/patch/validate-patch';
 import { seededRandom } from '../../shared/random/seeded-random';
-import type { SessionConnection } from '../../src/features/collab/api/session-connection';
+import type { SessionConnection } from '../../src/lib/live-session/session-connection';
 import { eventually, openClient, waitForSnapshot } from '../support/collab-client';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { startLiveTestServer, type LiveTestServer } from '../support/test-server';

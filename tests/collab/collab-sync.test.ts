@@ -5,7 +5,7 @@ import { presenceColour } from '../../shared/collab/presence-colour';
 import { as, registerUser, startLiveTestServer, type LiveTestServer } from '../support/test-server';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { eventually, openClient, waitForSnapshot } from '../support/collab-client';
-import type { SessionConnection } from '../../src/features/collab/api/session-connection';
+import type { SessionConnection } from '../../src/lib/live-session/session-connection';
 import { websocketUpgradeStatus } from '../support/websocket-upgrade';
 
 let server: LiveTestServer;

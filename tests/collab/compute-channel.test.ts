@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { patchDoc } from '../../shared/collab/patch-doc';
 import { modeWavenumber } from '../../shared/engine/mode-frequencies';
 import { COMPUTE_EVENTS, PROTOCOL_VERSION, type RefusedMessage } from '../../shared/protocol/compute-protocol';
-import type { ComputeResult, SessionConnection } from '../../src/features/collab/api/session-connection';
+import type { ComputeResult, SessionConnection } from '../../src/lib/live-session/session-connection';
 import { openClient, waitForSnapshot } from '../support/collab-client';
 import { openRawCollabClient } from '../support/raw-collab-client';
 import { runCli } from '../support/run-cli';

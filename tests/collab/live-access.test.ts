@@ -6,7 +6,7 @@ import { COMPUTE_EVENTS, PROTOCOL_VERSION, type ComputeResultMessage } from '../
 import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, SESSION_NOTICE_EVENT, type SessionNotice } from '../../shared/protocol/live-access';
 import { RENDER_EVENTS, type RenderProgressMessage, type RenderRefusedMessage } from '../../shared/protocol/render-protocol';
 import { createTautlineServer, type TautlineServer } from '../../server/http-server';
-import type { SessionConnection } from '../../src/features/collab/api/session-connection';
+import type { SessionConnection } from '../../src/lib/live-session/session-connection';
 import { eventually, openClient, waitForSnapshot } from '../support/collab-client';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
 import { as, startTestServer, TEST_PASSWORD, type TestServer } from '../support/test-server';

@@ -1,5 +1,5 @@
 import WebSocket from 'ws';
-import { SessionConnection, type SessionSnapshot } from '../../src/features/collab/api/session-connection';
+import { SessionConnection, type SessionSnapshot } from '../../src/lib/live-session/session-connection';
 
 // Each y-websocket provider adds a process exit listener; tests open many at once.
 process.setMaxListeners(64);

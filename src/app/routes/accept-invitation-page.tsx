@@ -9,7 +9,7 @@ import { TextField } from '../../components/text-field';
 import { blamesField, withFieldLabels } from '../../features/account/form-errors';
 import { PASSWORD_RULES_HINT, passwordProblem } from '../../features/account/password-rules';
 import { acceptAsNewAccountInputSchema, useAcceptInvitation } from '../../features/auth/api/accept-invitation';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/queries/get-me';
 import { useInvitation } from '../../features/auth/api/get-invitation';
 import { useSignOut } from '../../features/auth/api/sign-out';
 import { formatDateTime } from '../../features/members/format-time';

@@ -6,7 +6,7 @@ import { PageHeader } from '../../components/page-header';
 import { DeleteAccountForm } from '../../features/account/components/delete-account-form';
 import { PasswordForm } from '../../features/account/components/password-form';
 import { ProfileForm } from '../../features/account/components/profile-form';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/queries/get-me';
 
 const sectionClass = 'mb-8 rounded-lg border border-slate-700/15 p-4 dark:border-slate-300/10';
 

@@ -1,5 +1,5 @@
 import { Navigate } from 'react-router-dom';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/queries/get-me';
 import { currentStudio } from '../../features/studios/current-studio';
 
 /** `/`: the last studio used, or the first, or a prompt to create one. */

@@ -2,7 +2,7 @@ import { useParams } from 'react-router-dom';
 import { ACTION_REASONS, can } from '../../../shared/access/roles';
 import { Notice } from '../../components/notice';
 import { PageHeader } from '../../components/page-header';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/queries/get-me';
 import { InviteForm } from '../../features/members/components/invite-form';
 import { MembersTable } from '../../features/members/components/members-table';
 import { PendingInvitations } from '../../features/members/components/pending-invitations';

@@ -6,7 +6,7 @@ import { EmptyState } from '../../components/empty-state';
 import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
 import { PageHeader } from '../../components/page-header';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/queries/get-me';
 import { usePresets, type PresetSort } from '../../features/presets/api/get-presets';
 import { DeletePresetPanel } from '../../features/presets/components/delete-preset-panel';
 import { EditTagsPanel } from '../../features/presets/components/edit-tags-panel';

@@ -5,7 +5,7 @@ import { EmptyState } from '../../components/empty-state';
 import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
 import { PageHeader } from '../../components/page-header';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/queries/get-me';
 import { usePresets } from '../../features/presets/api/get-presets';
 import { useCancelRender } from '../../features/renders/api/cancel-render';
 import { useDeleteRender } from '../../features/renders/api/delete-render';
@@ -14,7 +14,7 @@ import { NewRenderForm } from '../../features/renders/components/new-render-form
 import { RendersTable } from '../../features/renders/components/renders-table';
 import { StorageUsage } from '../../features/renders/components/storage-usage';
 import { useRenderProgress } from '../../features/renders/hooks/use-render-progress';
-import { useSessions } from '../../features/sessions/api/get-sessions';
+import { useSessions } from '../../lib/queries/get-sessions';
 import NotFoundPage from './not-found-page';
 
 const LOADING_ROWS = 4;

@@ -10,7 +10,7 @@ import { ErrorBoundary } from '../../components/error-boundary';
 import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
 import { SegmentedChoice } from '../../components/segmented-choice';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/queries/get-me';
 import { LiveSessionNotice } from '../../features/collab/components/live-session-notice';
 import { useSessionConnection } from '../../features/collab/hooks/use-session-connection';
 import { LossesPanel, PickupPanel, RenderPanel, StringPanel } from '../../features/editor/components/patch-panels';
@@ -25,7 +25,7 @@ import { ResultsPanel } from '../../features/editor/results/results-panel';
 import { useContainerWidth } from '../../features/editor/results/use-container-width';
 import { useSettledValue } from '../../features/editor/results/use-settled-value';
 import { usePresets } from '../../features/presets/api/get-presets';
-import { useSession } from '../../features/sessions/api/get-session';
+import { useSession } from '../../lib/queries/get-session';
 
 /**
  * The page's parts, memoised: a compute result (about five a second while people drag) redraws the

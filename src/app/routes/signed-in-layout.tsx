@@ -3,7 +3,7 @@ import { useEffect } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router-dom';
 import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
-import { useMe } from '../../features/auth/api/get-me';
+import { useMe } from '../../lib/queries/get-me';
 import { onUnauthenticated } from '../../lib/api-client';
 import { AppShell } from '../app-shell';
 

@@ -1,5 +1,5 @@
 import type { FieldIssue } from '../../../shared/patch/field-issue';
-import type { ComputeResult } from '../../../src/features/collab/api/session-connection';
+import type { ComputeResult } from '../../../src/lib/live-session/session-connection';
 
 export const F0_HZ = 220;
 export const SAMPLE_RATE_HZ = 48000;

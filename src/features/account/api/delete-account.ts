@@ -2,7 +2,7 @@ import { useMutation, type QueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import { deleteAccountBody } from '../../../../shared/api/schemas';
 import { apiRequest } from '../../../lib/api-client';
-import { getMeQueryOptions } from '../../auth/api/get-me';
+import { getMeQueryOptions } from '../../../lib/queries/get-me';
 
 export const deleteAccountInputSchema = deleteAccountBody;
 export type DeleteAccountInput = z.input<typeof deleteAccountBody>;

@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import type { MeResponse, UserView } from '../../../../shared/api/responses';
 import { updateProfileBody } from '../../../../shared/api/schemas';
 import { apiRequest } from '../../../lib/api-client';
-import { getMeQueryOptions } from '../../auth/api/get-me';
+import { getMeQueryOptions } from '../../../lib/queries/get-me';
 
 export const updateProfileInputSchema = updateProfileBody;
 export type UpdateProfileInput = z.input<typeof updateProfileBody>;

@@ -4,7 +4,7 @@ import type { Role } from '../../../../shared/access/roles';
 import type { AuthResponse } from '../../../../shared/api/responses';
 import { acceptInvitationBody } from '../../../../shared/api/schemas';
 import { apiRequest } from '../../../lib/api-client';
-import { getMeQueryOptions } from './get-me';
+import { getMeQueryOptions } from '../../../lib/queries/get-me';
 import { getInvitationQueryOptions } from './get-invitation';
 
 export const acceptInvitationInputSchema = acceptInvitationBody;

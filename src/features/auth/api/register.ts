@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import type { AuthResponse } from '../../../../shared/api/responses';
 import { registerBody } from '../../../../shared/api/schemas';
 import { apiRequest } from '../../../lib/api-client';
-import { getMeQueryOptions } from './get-me';
+import { getMeQueryOptions } from '../../../lib/queries/get-me';
 
 export const registerInputSchema = registerBody;
 export type RegisterInput = z.input<typeof registerBody>;

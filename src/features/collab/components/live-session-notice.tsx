@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Button } from '../../../components/button';
 import { Notice } from '../../../components/notice';
-import type { SessionSnapshot } from '../api/session-connection';
+import type { SessionSnapshot } from '../../../lib/live-session/session-connection';
 
 const ENDED_TITLES = {
   removed: 'You are no longer in this studio',

@@ -2,7 +2,7 @@ import { patchDoc } from '../../../../shared/collab/patch-doc';
 import { allowedRangeM, deletePoint, movePoint } from '../../../../shared/collab/point-edits';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import { Button } from '../../../components/button';
-import type { SessionConnection } from '../../collab/api/session-connection';
+import type { SessionConnection } from '../../../lib/live-session/session-connection';
 import type { CanvasSelection } from '../geometry/canvas-selection';
 import { NumberField } from './number-field';
 

@@ -3,7 +3,7 @@ import { frequencyHzToMidi, midiToFrequencyHz, midiToNoteName } from '../../../.
 import { fundamentalFrequencyHz } from '../../../../shared/engine/mode-frequencies';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import { Button } from '../../../components/button';
-import { cautionSeen, playSamples } from '../../audition/audio-output';
+import { cautionSeen, playSamples } from '../../../lib/audio-output';
 import { renderNote } from '../notes/render-note';
 
 const BLACK = new Set([1, 3, 6, 8, 10]);

@@ -8,7 +8,7 @@ import type { MaterialId } from '../../../../shared/designer/materials';
 import { fundamentalFrequencyHz } from '../../../../shared/engine/mode-frequencies';
 import { LIMITS } from '../../../../shared/limits';
 import { Notice } from '../../../components/notice';
-import type { SessionConnection } from '../../collab/api/session-connection';
+import type { SessionConnection } from '../../../lib/live-session/session-connection';
 import { NumberField } from './number-field';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 

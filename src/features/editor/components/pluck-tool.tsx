@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { replaceLayerPoints } from '../../../../shared/collab/point-edits';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import { Button } from '../../../components/button';
-import type { SessionConnection } from '../../collab/api/session-connection';
+import type { SessionConnection } from '../../../lib/live-session/session-connection';
 import { pluckShape } from '../geometry/pluck-shape';
 import { NumberField } from './number-field';
 

@@ -2,9 +2,9 @@ import { useCallback, useEffect, useState } from 'react';
 import { Button } from '../../../components/button';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 import { SegmentedChoice } from '../../../components/segmented-choice';
-import { cautionSeen, playSamples, playUrl, stopPlayback } from '../../audition/audio-output';
-import { AudioCaution } from '../../audition/components/audio-caution';
-import type { ComputeResult } from '../../collab/api/session-connection';
+import { cautionSeen, playSamples, playUrl, stopPlayback } from '../../../lib/audio-output';
+import { AudioCaution } from '../../../components/audio-caution';
+import type { ComputeResult } from '../../../lib/live-session/session-connection';
 
 /** A sound to compare the session's string with: a preset's preview, by its URL. */
 export interface ComparisonSound {

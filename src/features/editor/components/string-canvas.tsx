@@ -4,7 +4,7 @@ import { Circle, Group, Layer, Line, Rect, Stage, Text } from 'react-konva';
 import { deletePoint, insertPoint, movePoint, replaceLayerPoints } from '../../../../shared/collab/point-edits';
 import { patchDoc } from '../../../../shared/collab/patch-doc';
 import type { Patch } from '../../../../shared/patch/patch-schema';
-import type { Presence, SessionConnection } from '../../collab/api/session-connection';
+import type { Presence, SessionConnection } from '../../../lib/live-session/session-connection';
 import { createCanvasScale } from '../geometry/canvas-scale';
 import { asPixels, type PixelPoint } from '../geometry/canvas-units';
 import { sameSelection, type CanvasSelection } from '../geometry/canvas-selection';

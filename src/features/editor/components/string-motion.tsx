@@ -2,7 +2,7 @@ import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type Konva from 'konva';
 import { Layer, Line, Stage, Text } from 'react-konva';
 import { modeAmplitudesAt, modeShapeTable, stringShapeM } from '../../../../shared/engine/modal-motion';
-import type { ComputeResult } from '../../collab/api/session-connection';
+import type { ComputeResult } from '../../../lib/live-session/session-connection';
 import { Button } from '../../../components/button';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 import { useContainerWidth } from '../results/use-container-width';

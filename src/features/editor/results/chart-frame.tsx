@@ -1,5 +1,5 @@
 import { useId, type ReactNode } from 'react';
-import type { ComputeResult } from '../../collab/api/session-connection';
+import type { ComputeResult } from '../../../lib/live-session/session-connection';
 import type { FieldIssue } from '../../../../shared/patch/field-issue';
 import { useContainerWidth } from './use-container-width';
 

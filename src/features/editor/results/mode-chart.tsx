@@ -1,7 +1,7 @@
 import { memo, useEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import { t60FromDecayRate } from '../../../../shared/engine/mode-decay';
 import type { FieldIssue } from '../../../../shared/patch/field-issue';
-import type { ComputeResult } from '../../collab/api/session-connection';
+import type { ComputeResult } from '../../../lib/live-session/session-connection';
 import { BottomAxis, SideAxis, type ChartMargins } from './chart-axes';
 import { ChartFrame, resultsState } from './chart-frame';
 import { frequencyTickLabel, linearScale, logScale, logTicks } from './chart-scales';

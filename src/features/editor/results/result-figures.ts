@@ -1,5 +1,5 @@
 import { t60FromDecayRate } from '../../../../shared/engine/mode-decay';
-import type { ComputeResult } from '../../collab/api/session-connection';
+import type { ComputeResult } from '../../../lib/live-session/session-connection';
 import { formatCount, formatHz, formatT60 } from './quantity-format';
 import { formatSi } from './si-prefix';
 

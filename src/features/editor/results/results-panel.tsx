@@ -1,7 +1,7 @@
 import { memo } from 'react';
 import { Notice } from '../../../components/notice';
 import type { FieldIssue } from '../../../../shared/patch/field-issue';
-import type { ComputeResult } from '../../collab/api/session-connection';
+import type { ComputeResult } from '../../../lib/live-session/session-connection';
 import { resultsState } from './chart-frame';
 import { ModeChart } from './mode-chart';
 import { resultFigures } from './result-figures';

@@ -1,6 +1,6 @@
 import { memo, useMemo } from 'react';
 import type { FieldIssue } from '../../../../shared/patch/field-issue';
-import type { ComputeResult } from '../../collab/api/session-connection';
+import type { ComputeResult } from '../../../lib/live-session/session-connection';
 import { BottomAxis, SideAxis, type ChartMargins } from './chart-axes';
 import { ChartFrame, resultsState } from './chart-frame';
 import { frequencyTickLabel, linearScale, logScale, logTicks } from './chart-scales';

@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import type { MemberView } from '../../../../shared/api/responses';
 import { changeRoleBody } from '../../../../shared/api/schemas';
 import { apiRequest } from '../../../lib/api-client';
-import { getMeQueryOptions } from '../../auth/api/get-me';
+import { getMeQueryOptions } from '../../../lib/queries/get-me';
 import { getMembersQueryOptions } from './get-members';
 
 export const changeRoleInputSchema = changeRoleBody;

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-import { getMeQueryOptions } from '../../auth/api/get-me';
+import { getMeQueryOptions } from '../../../lib/queries/get-me';
 import { getMembersQueryOptions } from './get-members';
 
 /** Removes a member from the studio; with your own id, you leave it. */

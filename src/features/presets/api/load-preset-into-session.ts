@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import type { SessionDetail } from '../../../../shared/api/responses';
 import { loadPresetBody } from '../../../../shared/api/schemas';
 import { apiRequest } from '../../../lib/api-client';
-import { getSessionQueryOptions } from '../../sessions/api/get-session';
+import { getSessionQueryOptions } from '../../../lib/queries/get-session';
 
 export const loadPresetIntoSessionInputSchema = loadPresetBody;
 export type LoadPresetIntoSessionInput = z.input<typeof loadPresetBody>;

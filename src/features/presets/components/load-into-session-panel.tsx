@@ -4,7 +4,7 @@ import type { PresetSummary, SessionSummary } from '../../../../shared/api/respo
 import { Button } from '../../../components/button';
 import { LoadingBlock } from '../../../components/loading-block';
 import { Notice } from '../../../components/notice';
-import { useSessions } from '../../sessions/api/get-sessions';
+import { useSessions } from '../../../lib/queries/get-sessions';
 import { useLoadPresetIntoSession } from '../api/load-preset-into-session';
 import { ActionPanel } from './action-panel';
 

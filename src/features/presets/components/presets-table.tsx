@@ -2,7 +2,7 @@ import type { PresetSummary } from '../../../../shared/api/responses';
 import { ACTION_REASONS } from '../../../../shared/access/roles';
 import { Button } from '../../../components/button';
 import { DataTable, type Column } from '../../../components/data-table';
-import { AuditionButton } from '../../audition/components/audition-button';
+import { AuditionButton } from '../../../components/audition-button';
 
 export type PresetAction = 'details' | 'load' | 'tags' | 'delete';
 

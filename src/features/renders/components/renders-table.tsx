@@ -3,7 +3,7 @@ import type { RenderView } from '../../../../shared/renders/render-settings';
 import { Button } from '../../../components/button';
 import { ConfirmAction } from '../../../components/confirm-action';
 import { DataTable, type Column } from '../../../components/data-table';
-import { AuditionButton } from '../../audition/components/audition-button';
+import { AuditionButton } from '../../../components/audition-button';
 import { renderFileUrl, renderPatchUrl, renderPlayUrl } from '../api/render-file-urls';
 import { isRenderActive } from '../apply-render-progress';
 import { byteSize, lengthRuleSummary, noteSetSummary, outputSummary, signedNumber } from '../render-summary';

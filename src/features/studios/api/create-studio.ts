@@ -3,7 +3,7 @@ import type { z } from 'zod';
 import type { StudioSummary } from '../../../../shared/api/responses';
 import { createStudioBody } from '../../../../shared/api/schemas';
 import { apiRequest } from '../../../lib/api-client';
-import { getMeQueryOptions } from '../../auth/api/get-me';
+import { getMeQueryOptions } from '../../../lib/queries/get-me';
 
 export const createStudioInputSchema = createStudioBody;
 export type CreateStudioInput = z.input<typeof createStudioBody>;

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MeResponse } from '../../../../shared/api/responses';
-import { apiRequest } from '../../../lib/api-client';
-import { isUnauthenticated } from '../../../lib/api-error';
+import type { MeResponse } from '../../../shared/api/responses';
+import { apiRequest } from '../api-client';
+import { isUnauthenticated } from '../api-error';
 
 /** The signed-in user and their studios; null when nobody is signed in. */
 export async function getMe(): Promise<MeResponse | null> {

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { MASTER_VOLUME_DB, setMasterVolumeDb, storedMasterVolumeDb } from '../audio-output';
+import { MASTER_VOLUME_DB, setMasterVolumeDb, storedMasterVolumeDb } from '../lib/audio-output';
 
 /** The master volume of everything the app plays, always within reach in the header. */
 export function MasterVolume() {

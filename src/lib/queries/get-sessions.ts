@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SessionSummary } from '../../../../shared/api/responses';
-import { apiRequest } from '../../../lib/api-client';
+import type { SessionSummary } from '../../../shared/api/responses';
+import { apiRequest } from '../api-client';
 
 export async function getSessions(studioId: string, includeArchived: boolean): Promise<SessionSummary[]> {
   return (await apiRequest<{ sessions: SessionSummary[] }>(`/studios/${studioId}/sessions${includeArchived ? '?archived=true' : ''}`)).sessions;

@@ -1,6 +1,6 @@
 import { useId } from 'react';
-import { Button } from '../../../components/button';
-import { markCautionSeen } from '../audio-output';
+import { Button } from './button';
+import { markCautionSeen } from '../lib/audio-output';
 import { MasterVolume } from './master-volume';
 
 /**

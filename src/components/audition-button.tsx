@@ -1,6 +1,6 @@
 import { useState } from 'react';
-import { Button } from '../../../components/button';
-import { cautionSeen, playUrl, stopPlayback } from '../audio-output';
+import { Button } from './button';
+import { cautionSeen, playUrl, stopPlayback } from '../lib/audio-output';
 import { AudioCaution } from './audio-caution';
 
 /**

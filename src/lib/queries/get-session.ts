@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SessionDetail } from '../../../../shared/api/responses';
-import { apiRequest } from '../../../lib/api-client';
+import type { SessionDetail } from '../../../shared/api/responses';
+import { apiRequest } from '../api-client';
 
 export async function getSession(sessionId: string): Promise<SessionDetail> {
   return (await apiRequest<{ session: SessionDetail }>(`/sessions/${sessionId}`)).session;

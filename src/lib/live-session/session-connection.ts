@@ -2,10 +2,10 @@ import { io, type Socket } from 'socket.io-client';
 import * as authProtocol from 'y-protocols/auth';
 import { WebsocketProvider } from 'y-websocket';
 import * as Y from 'yjs';
-import { validatedPatchFromDoc } from '../../../../shared/collab/patch-doc';
-import type { FieldIssue } from '../../../../shared/patch/field-issue';
-import type { Patch } from '../../../../shared/patch/patch-schema';
-import type { Role } from '../../../../shared/access/roles';
+import { validatedPatchFromDoc } from '../../../shared/collab/patch-doc';
+import type { FieldIssue } from '../../../shared/patch/field-issue';
+import type { Patch } from '../../../shared/patch/patch-schema';
+import type { Role } from '../../../shared/access/roles';
 import {
   COMPUTE_EVENTS,
   PROTOCOL_VERSION,
@@ -13,8 +13,8 @@ import {
   type InvalidMessage,
   type JoinedMessage,
   type RefusedMessage,
-} from '../../../../shared/protocol/compute-protocol';
-import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, SESSION_NOTICE_EVENT, type LiveAccessEndReason, type SessionNotice } from '../../../../shared/protocol/live-access';
+} from '../../../shared/protocol/compute-protocol';
+import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, SESSION_NOTICE_EVENT, type LiveAccessEndReason, type SessionNotice } from '../../../shared/protocol/live-access';
 
 /** What a teammate shares about themselves while in a session. */
 export interface Presence {
