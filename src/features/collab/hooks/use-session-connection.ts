@@ -1,5 +1,5 @@
 import { useCallback, useEffect, useState, useSyncExternalStore } from 'react';
-import { SessionConnection, type Presence, type SessionSnapshot } from '../api/session-connection';
+import { SessionConnection, type Presence, type SessionSnapshot } from '../../../lib/live-session/session-connection';
 
 /**
  * Opens a live session for as long as the component is mounted: document, presence, undo/redo,
