@@ -6,7 +6,7 @@ import { Button } from '../../components/button';
 import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
 import { TextField } from '../../components/text-field';
-import { blamesField, withFieldLabels } from '../../features/account/form-errors';
+import { blamesField, withFieldLabels } from '../../lib/form-errors';
 import { PASSWORD_RULES_HINT, passwordProblem } from '../../features/account/password-rules';
 import { acceptAsNewAccountInputSchema, useAcceptInvitation } from '../../features/auth/api/accept-invitation';
 import { useMe } from '../../lib/queries/get-me';

@@ -4,7 +4,7 @@ import { AuthFrame } from '../../components/auth-frame';
 import { Button } from '../../components/button';
 import { Notice } from '../../components/notice';
 import { TextField } from '../../components/text-field';
-import { blamesField, withFieldLabels } from '../../features/account/form-errors';
+import { blamesField, withFieldLabels } from '../../lib/form-errors';
 import { requestPasswordResetInputSchema, useRequestPasswordReset } from '../../features/auth/api/request-password-reset';
 import { useFieldErrors } from '../../lib/use-field-errors';
 

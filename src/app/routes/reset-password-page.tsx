@@ -4,7 +4,7 @@ import { AuthFrame } from '../../components/auth-frame';
 import { Button } from '../../components/button';
 import { Notice } from '../../components/notice';
 import { TextField } from '../../components/text-field';
-import { blamesField, withFieldLabels } from '../../features/account/form-errors';
+import { blamesField, withFieldLabels } from '../../lib/form-errors';
 import { PASSWORD_RULES_HINT, passwordProblem } from '../../features/account/password-rules';
 import { confirmPasswordResetInputSchema, useConfirmPasswordReset } from '../../features/auth/api/confirm-password-reset';
 import { ApiRequestError } from '../../lib/api-error';

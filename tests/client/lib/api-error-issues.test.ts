@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { apiErrorBody } from '../../../shared/api/error-body';
-import { withFieldLabels } from '../../../src/features/account/form-errors';
+import { withFieldLabels } from '../../../src/lib/form-errors';
 import { ApiRequestError } from '../../../src/lib/api-error';
 
 describe('the client reads field problems from issues only', () => {

@@ -6,7 +6,7 @@ import { Notice } from '../../../components/notice';
 import { TextField } from '../../../components/text-field';
 import { useFieldErrors } from '../../../lib/use-field-errors';
 import { deleteAccountInputSchema, forgetDeletedAccount, useDeleteAccount } from '../api/delete-account';
-import { blamesField, withFieldLabels } from '../form-errors';
+import { blamesField, withFieldLabels } from '../../../lib/form-errors';
 
 /**
  * Deleting the account takes two steps: open the form, then type the password. While you are the

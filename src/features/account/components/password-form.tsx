@@ -4,7 +4,7 @@ import { Notice } from '../../../components/notice';
 import { TextField } from '../../../components/text-field';
 import { useFieldErrors } from '../../../lib/use-field-errors';
 import { changePasswordInputSchema, useChangePassword } from '../api/change-password';
-import { blamesField, withFieldLabels } from '../form-errors';
+import { blamesField, withFieldLabels } from '../../../lib/form-errors';
 import { PASSWORD_RULES_HINT, passwordProblem } from '../password-rules';
 
 const LABELS = { currentPassword: 'Current password', newPassword: 'New password' };

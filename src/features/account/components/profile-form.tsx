@@ -5,7 +5,7 @@ import { Notice } from '../../../components/notice';
 import { TextField } from '../../../components/text-field';
 import { useFieldErrors } from '../../../lib/use-field-errors';
 import { updateProfileInputSchema, useUpdateProfile } from '../api/update-profile';
-import { blamesField, withFieldLabels } from '../form-errors';
+import { blamesField, withFieldLabels } from '../../../lib/form-errors';
 
 /** Your name as your studios see it. */
 export function ProfileForm({ user }: { user: UserView }) {

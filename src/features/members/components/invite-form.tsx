@@ -6,7 +6,7 @@ import { Notice } from '../../../components/notice';
 import { TextField } from '../../../components/text-field';
 import { ApiRequestError } from '../../../lib/api-error';
 import { useFieldErrors } from '../../../lib/use-field-errors';
-import { blamesField, withFieldLabels } from '../../account/form-errors';
+import { blamesField, withFieldLabels } from '../../../lib/form-errors';
 import { inviteMemberInputSchema, useInviteMember } from '../api/invite-member';
 import { formatDateTime } from '../format-time';
 import { ROLE_SUMMARIES } from '../role-words';

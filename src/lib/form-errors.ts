@@ -1,4 +1,4 @@
-import { ApiRequestError } from '../../lib/api-error';
+import { ApiRequestError } from './api-error';
 
 /**
  * The server names a field by its key ("newPassword must be at least 10 characters") and lists the
