@@ -1,51 +1,11 @@
 import * as Y from 'yjs';
-import type { Patch } from '../patch/patch-schema';
+import { patchSchema, type Patch } from '../patch/patch-schema';
 import { validatePatch } from '../patch/validate-patch';
 import { fieldIssue, type FieldIssue, type Validation } from '../patch/field-issue';
+import { DOC_LAYOUT, DOC_PART_NAMES, patchDoc, type DocPartName, type DocPoint, type PatchSectionName, type PointsPart, type PointsPartName } from './doc-layout';
 
-/**
- * The layout of a session's shared document, defined once. Scalars live in one Y.Map per part of
- * the patch, so two people changing different fields never collide; each interior polyline point is
- * its own Y.Map inside a Y.Array, so two people dragging different points never overwrite each
- * other. The two supports are not stored: they are always (0, 0) and (lengthM, 0).
- */
-export const DOC_KEYS = {
-  meta: 'meta',
-  string: 'string',
-  damping: 'damping',
-  pickup: 'pickup',
-  render: 'render',
-  displacement: 'displacement',
-  velocity: 'velocity',
-  extras: 'extras',
-} as const;
-
-/** One interior point: x in metres along the string, value in metres (displacement) or m/s (velocity). */
-export type DocPoint = Y.Map<number>;
-
-export interface PatchDoc {
-  meta: Y.Map<unknown>;
-  string: Y.Map<number>;
-  damping: Y.Map<number>;
-  pickup: Y.Map<number | string>;
-  render: Y.Map<number>;
-  displacement: Y.Array<DocPoint>;
-  velocity: Y.Array<DocPoint>;
-  extras: Y.Map<unknown>;
-}
-
-export function patchDoc(doc: Y.Doc): PatchDoc {
-  return {
-    meta: doc.getMap(DOC_KEYS.meta),
-    string: doc.getMap(DOC_KEYS.string),
-    damping: doc.getMap(DOC_KEYS.damping),
-    pickup: doc.getMap(DOC_KEYS.pickup),
-    render: doc.getMap(DOC_KEYS.render),
-    displacement: doc.getArray(DOC_KEYS.displacement),
-    velocity: doc.getArray(DOC_KEYS.velocity),
-    extras: doc.getMap(DOC_KEYS.extras),
-  };
-}
+// The layout lives in doc-layout.ts; these are re-exported for the many callers that read the document here.
+export { DOC_LAYOUT, docSharedTypes, patchDoc, type DocPoint, type PatchDoc } from './doc-layout';
 
 export function docPoint(x: number, value: number): DocPoint {
   const point = new Y.Map<number>();
@@ -54,7 +14,23 @@ export function docPoint(x: number, value: number): DocPoint {
   return point;
 }
 
-const PATCH_FIELDS = new Set(['name', 'string', 'excitation', 'damping', 'pickup', 'render']);
+/** The patch's sections in the schema's order (name, string, excitation, …). */
+const PATCH_SECTIONS = Object.keys(patchSchema.shape) as PatchSectionName[];
+const SECTION_NAMES: ReadonlySet<string> = new Set(PATCH_SECTIONS);
+
+/** The point-array parts, each with its polyline field of `excitation`. */
+const POINT_PARTS = DOC_PART_NAMES.filter((name): name is PointsPartName => DOC_LAYOUT[name].kind === 'points').map((name) => [name, DOC_LAYOUT[name] as PointsPart] as const);
+
+/** The map part holding each section kept as scalars (every section but `excitation`). */
+const MAP_PART_OF_SECTION = new Map<PatchSectionName, DocPartName>(
+  DOC_PART_NAMES.flatMap((name) => {
+    const part = DOC_LAYOUT[name];
+    return part.kind === 'map' && part.section !== null ? [[part.section, name] as const] : [];
+  }),
+);
+
+/** The flag in `meta` that says the velocity layer is present (an empty layer and no layer differ). */
+const HAS_VELOCITY = 'hasVelocity';
 
 function setAll<T>(map: Y.Map<T>, values: Record<string, T>): void {
   for (const [key, value] of Object.entries(values)) if (map.get(key) !== value) map.set(key, value);
@@ -67,21 +43,27 @@ function replacePoints(array: Y.Array<DocPoint>, polyline: ReadonlyArray<readonl
   if (interior.length > 0) array.insert(0, interior.map(([x, value]) => docPoint(x, value)));
 }
 
+/** A section as the scalars of its map: an object section's fields, or a scalar section under its own name. */
+function sectionValues(patch: Patch, section: PatchSectionName): Record<string, unknown> {
+  const value: unknown = patch[section];
+  return value !== null && typeof value === 'object' ? { ...(value as Record<string, unknown>) } : { [section]: value };
+}
+
 /** Writes a whole patch into the document in one transaction (a session's first state, or a preset loaded). */
 export function writePatchToDoc(doc: Y.Doc, patch: Patch, origin: unknown = null): void {
   const parts = patchDoc(doc);
   doc.transact(() => {
-    setAll(parts.meta, { name: patch.name, hasVelocity: patch.excitation.velocityMPerS !== undefined });
-    setAll(parts.string, { ...patch.string } as Record<string, number>);
-    setAll(parts.damping, { ...patch.damping } as Record<string, number>);
-    setAll(parts.pickup, { ...patch.pickup } as Record<string, number | string>);
-    setAll(parts.render, { ...patch.render } as Record<string, number>);
-    replacePoints(parts.displacement, patch.excitation.displacementM);
-    replacePoints(parts.velocity, patch.excitation.velocityMPerS);
-    setAll(
-      parts.extras,
-      Object.fromEntries(Object.entries(patch).filter(([key]) => !PATCH_FIELDS.has(key))),
-    );
+    const mapValues = new Map<DocPartName, Record<string, unknown>>();
+    for (const section of PATCH_SECTIONS) {
+      if (section === 'excitation') continue;
+      const name = MAP_PART_OF_SECTION.get(section);
+      if (!name) throw new Error(`patch section ${section} has no part in DOC_LAYOUT`);
+      mapValues.set(name, { ...mapValues.get(name), ...sectionValues(patch, section) });
+    }
+    mapValues.set('meta', { ...mapValues.get('meta'), [HAS_VELOCITY]: patch.excitation.velocityMPerS !== undefined });
+    mapValues.set('extras', Object.fromEntries(Object.entries(patch).filter(([key]) => !SECTION_NAMES.has(key))));
+    for (const [name, values] of mapValues) setAll(parts[name] as Y.Map<unknown>, values);
+    for (const [name, part] of POINT_PARTS) replacePoints(parts[name], patch.excitation[part.field]);
   }, origin);
 }
 
@@ -105,8 +87,7 @@ function readPolyline(array: Y.Array<DocPoint>, lengthM: number): [number, numbe
 
 const isFiniteNumber = (value: unknown): value is number => typeof value === 'number' && Number.isFinite(value);
 
-const POLYLINE_FIELDS = { displacement: 'displacementM', velocity: 'velocityMPerS' } as const;
-const ROOT_NAMES: ReadonlySet<string> = new Set(Object.values(DOC_KEYS));
+const ROOT_NAMES: ReadonlySet<string> = new Set(DOC_PART_NAMES);
 
 /**
  * What the document holds that no patch could: a shared part the layout does not have, or a
@@ -118,11 +99,11 @@ export function docShapeIssues(doc: Y.Doc): FieldIssue[] {
   const issues: FieldIssue[] = [];
   for (const name of doc.share.keys()) if (!ROOT_NAMES.has(name)) issues.push(fieldIssue([name], 'is not a part of a patch', undefined, false));
   const parts = patchDoc(doc);
-  for (const [layer, field] of Object.entries(POLYLINE_FIELDS) as Array<[keyof typeof POLYLINE_FIELDS, string]>) {
-    const entries = parts[layer].toArray() as unknown[];
+  for (const [name, part] of POINT_PARTS) {
+    const entries = parts[name].toArray() as unknown[];
     for (let index = 0; index < entries.length && issues.length < 5; index++) {
       const entry = entries[index];
-      const path = ['excitation', field, index + 1];
+      const path = [part.section, part.field, index + 1];
       if (!(entry instanceof Y.Map)) {
         issues.push(fieldIssue(path, 'must be a point with x and a value', entry instanceof Y.AbstractType ? 'a shared text or list' : entry));
         continue;
@@ -146,18 +127,25 @@ export function patchFromDoc(doc: Y.Doc): unknown {
   const parts = patchDoc(doc);
   const string = parts.string.toJSON() as Record<string, unknown>;
   const lengthM = typeof string.lengthM === 'number' ? string.lengthM : NaN;
-  return {
-    ...(parts.extras.toJSON() as Record<string, unknown>),
-    name: parts.meta.get('name'),
-    string,
-    excitation: {
-      displacementM: readPolyline(parts.displacement, lengthM),
-      ...(parts.meta.get('hasVelocity') ? { velocityMPerS: readPolyline(parts.velocity, lengthM) } : {}),
-    },
-    damping: parts.damping.toJSON(),
-    pickup: parts.pickup.toJSON(),
-    render: parts.render.toJSON(),
-  };
+  const out: Record<string, unknown> = { ...(parts.extras.toJSON() as Record<string, unknown>) };
+  for (const section of PATCH_SECTIONS) {
+    if (section === 'excitation') {
+      const excitation: Record<string, unknown> = {};
+      for (const [name, part] of POINT_PARTS) {
+        if (part.field === 'velocityMPerS' && !parts.meta.get(HAS_VELOCITY)) continue;
+        excitation[part.field] = readPolyline(parts[name], lengthM);
+      }
+      out[section] = excitation;
+      continue;
+    }
+    const name = MAP_PART_OF_SECTION.get(section);
+    if (!name) continue;
+    const map = parts[name] as Y.Map<unknown>;
+    const kept = patchSchema.shape[section];
+    // An object section is its whole map; a scalar section (the name) is one key of its map.
+    out[section] = 'shape' in kept ? map.toJSON() : map.get(section);
+  }
+  return out;
 }
 
 /** The document as a validated patch, or the field problems that stop it from being one. */
