@@ -2,6 +2,8 @@
 ;; (renderFastStereo, as render-bank-stereo.ts): the same blocked complex recursion, with two modes
 ;; per 128-bit vector (f64x2), four modes per group.
 ;; Every array is f64 in this module's memory; the caller passes byte offsets.
+;; The two functions repeat each other on purpose, as the TypeScript kernels do: hot loops stay
+;; monomorphic and keep their state in registers (no channel count or branch inside the loop).
 (module
   (memory (export "memory") 1)
   (func (export "renderFastStereo")

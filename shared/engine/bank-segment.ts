@@ -1,4 +1,5 @@
 import type { FastOscillators, OscillatorBank, SlowOscillators } from './oscillator-bank';
+import { newFastOscillators, newSlowOscillators } from './oscillator-storage';
 
 /**
  * The oscillators of `bank` as they stand `startSample` samples into the render, for a segment of
@@ -15,17 +16,20 @@ export function bankSegment(bank: OscillatorBank, startSample: number, sampleCou
   return { sampleCount, fast: fastSegment(bank.fast, startSample, sampleCount), slow: slowSegment(bank.slow, startSample, sampleCount) };
 }
 
+/** A segment reads the same pickups: the per-channel gains are copied as they are. */
+function copyGains(from: FastOscillators | SlowOscillators, to: FastOscillators | SlowOscillators): void {
+  if (from.gainA && from.gainB && to.gainA && to.gainB) {
+    to.gainA.set(from.gainA);
+    to.gainB.set(from.gainB);
+  }
+}
+
 function fastSegment(bank: FastOscillators, start: number, sampleCount: number): FastOscillators {
   const { count } = bank;
-  const out: FastOscillators = {
-    count,
-    stateRe: new Float64Array(count),
-    stateIm: new Float64Array(count),
-    stepRe: Float64Array.from(bank.stepRe),
-    stepIm: Float64Array.from(bank.stepIm),
-    activeSamples: new Float64Array(count),
-    ...(bank.gainA && bank.gainB ? { gainA: Float64Array.from(bank.gainA), gainB: Float64Array.from(bank.gainB) } : {}),
-  };
+  const out = newFastOscillators(count, bank.gainA !== undefined && bank.gainB !== undefined);
+  out.stepRe.set(bank.stepRe);
+  out.stepIm.set(bank.stepIm);
+  copyGains(bank, out);
   for (let j = 0; j < count; j++) {
     const remaining = bank.activeSamples[j] - start;
     // Kept sorted (a constant shift, clamped at zero), as the renderer relies on.
@@ -47,17 +51,9 @@ function fastSegment(bank: FastOscillators, start: number, sampleCount: number):
 
 function slowSegment(bank: SlowOscillators, start: number, sampleCount: number): SlowOscillators {
   const { count } = bank;
-  const out: SlowOscillators = {
-    count,
-    q: new Float64Array(count),
-    u: new Float64Array(count),
-    m11: Float64Array.from(bank.m11),
-    m12: Float64Array.from(bank.m12),
-    m21: Float64Array.from(bank.m21),
-    m22: Float64Array.from(bank.m22),
-    activeSamples: new Float64Array(count),
-    ...(bank.gainA && bank.gainB ? { gainA: Float64Array.from(bank.gainA), gainB: Float64Array.from(bank.gainB) } : {}),
-  };
+  const out = newSlowOscillators(count, bank.gainA !== undefined && bank.gainB !== undefined);
+  for (const key of ['m11', 'm12', 'm21', 'm22'] as const) out[key].set(bank[key]);
+  copyGains(bank, out);
   for (let j = 0; j < count; j++) {
     const remaining = bank.activeSamples[j] - start;
     out.activeSamples[j] = Math.max(0, Math.min(sampleCount, remaining));

@@ -1,6 +1,7 @@
 import type { Patch } from '../patch/patch-schema';
 import type { ModeTable } from './mode-table';
 import { pickupReadsVelocity, pickupWeight } from './pickup-weights';
+import { newFastOscillators, newSlowOscillators } from './oscillator-storage';
 
 /**
  * Each kept mode as a ready-to-run oscillator for the renderer.
@@ -128,15 +129,7 @@ function buildFast(modes: Prepared[], floor: number, dt: number, sampleCount: nu
   });
   rows.sort((x, y) => y.active - x.active);
   const count = Math.ceil(rows.length / FAST_GROUP) * FAST_GROUP;
-  const bank: FastOscillators = {
-    count,
-    stateRe: new Float64Array(count),
-    stateIm: new Float64Array(count),
-    stepRe: new Float64Array(count),
-    stepIm: new Float64Array(count),
-    activeSamples: new Float64Array(count),
-    ...(modes.some((mode) => mode.gains) ? { gainA: new Float64Array(count), gainB: new Float64Array(count) } : {}),
-  };
+  const bank = newFastOscillators(count, modes.some((mode) => mode.gains));
   rows.forEach((row, j) => {
     if (row.gains && bank.gainA && bank.gainB) {
       bank.gainA[j] = row.gains.a;
@@ -153,17 +146,7 @@ function buildFast(modes: Prepared[], floor: number, dt: number, sampleCount: nu
 
 function buildSlow(modes: Prepared[], floor: number, dt: number, sampleCount: number): SlowOscillators {
   const count = modes.length;
-  const bank: SlowOscillators = {
-    count,
-    q: new Float64Array(count),
-    u: new Float64Array(count),
-    m11: new Float64Array(count),
-    m12: new Float64Array(count),
-    m21: new Float64Array(count),
-    m22: new Float64Array(count),
-    activeSamples: new Float64Array(count),
-    ...(modes.some((mode) => mode.gains) ? { gainA: new Float64Array(count), gainB: new Float64Array(count) } : {}),
-  };
+  const bank = newSlowOscillators(count, modes.some((mode) => mode.gains));
   modes.forEach(({ sigma, omega, q0, p0, amplitude, gains }, j) => {
     if (gains && bank.gainA && bank.gainB) {
       bank.gainA[j] = gains.a;

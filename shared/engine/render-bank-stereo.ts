@@ -2,6 +2,11 @@ import { FAST_GROUP, type FastOscillators, type OscillatorBank, type SlowOscilla
 
 const BLOCK_SAMPLES = 512;
 
+// Repeated on purpose: this is render-bank.ts's kernel with two weighted sums, not a shared loop
+// with a channel count or a callback. Hot loops stay monomorphic and keep their state in
+// registers. A change here goes into render-bank.ts and mode-kernel.wat too, and
+// tests/server/wasm-kernel.test.ts checks that they still agree sample for sample.
+
 /**
  * Adds a stereo bank (built with a second pickup) into two channels at once: each mode's state
  * is advanced once per sample, exactly as in `renderBank`, and read by both pickups,

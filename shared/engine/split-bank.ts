@@ -1,16 +1,9 @@
 import { FAST_GROUP, type FastOscillators, type OscillatorBank, type SlowOscillators } from './oscillator-bank';
+import { newFastOscillators, newSlowOscillators } from './oscillator-storage';
 
 function pickFast(bank: FastOscillators, groups: number[]): FastOscillators {
   const count = groups.length * FAST_GROUP;
-  const part: FastOscillators = {
-    count,
-    stateRe: new Float64Array(count),
-    stateIm: new Float64Array(count),
-    stepRe: new Float64Array(count),
-    stepIm: new Float64Array(count),
-    activeSamples: new Float64Array(count),
-    ...(bank.gainA ? { gainA: new Float64Array(count), gainB: new Float64Array(count) } : {}),
-  };
+  const part = newFastOscillators(count, bank.gainA !== undefined);
   groups.forEach((group, index) => {
     const from = group * FAST_GROUP;
     const to = index * FAST_GROUP;
@@ -25,11 +18,11 @@ function pickFast(bank: FastOscillators, groups: number[]): FastOscillators {
 function pickSlow(bank: SlowOscillators, indices: number[]): SlowOscillators {
   const count = indices.length;
   const keys = ['q', 'u', 'm11', 'm12', 'm21', 'm22', 'activeSamples', ...(bank.gainA ? (['gainA', 'gainB'] as const) : [])] as const;
-  const part = Object.fromEntries(keys.map((key) => [key, new Float64Array(count)])) as Omit<SlowOscillators, 'count'>;
+  const part = newSlowOscillators(count, bank.gainA !== undefined);
   indices.forEach((from, to) => {
     for (const key of keys) (part[key] as Float64Array)[to] = (bank[key] as Float64Array)[from];
   });
-  return { count, ...part };
+  return part;
 }
 
 /**
