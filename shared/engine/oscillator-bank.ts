@@ -1,60 +1,10 @@
 import type { Patch } from '../patch/patch-schema';
 import type { ModeTable } from './mode-table';
 import { pickupReadsVelocity, pickupWeight } from './pickup-weights';
-import { newFastOscillators, newSlowOscillators } from './oscillator-storage';
+import { newFastOscillators, newSlowOscillators, type FastOscillators, type OscillatorBank, type SlowOscillators } from './oscillator-storage';
 
-/**
- * Each kept mode as a ready-to-run oscillator for the renderer.
- *
- * A mode obeys q'' + 2σq' + ω²q = 0 with q(0) = q0, q'(0) = p0. Its exact solution, sampled every
- * Δt = 1/fs, advances by one constant linear map per sample, so a render needs no transcendental
- * function per sample:
- * - Ringing modes (ω_d = √(ω² − σ²) ≥ σ) are written q(t) = Re(G·e^(λt)), λ = −σ + iω_d,
- *   G = q0 − i(p0 + σq0)/ω_d; each sample multiplies the complex state by r = e^(λΔt) (the
- *   "fast" bank: one complex multiply per mode per sample).
- * - Heavily damped, critically damped and overdamped modes (σ > ω_d) use the exact 2×2 transition
- *   matrix of the state (q, q'/ω), which is well conditioned in every regime (the "slow" bank).
- *
- * The pickup's weight is folded into the initial state. A pickup that reads velocity renders q'
- * instead of q: q' obeys the same equation, with q'(0) = p0 and q''(0) = −2σp0 − ω²q0.
- *
- * Oscillators whose amplitude is below CUT_RATIO of the loudest one are left out, and each
- * oscillator stops once its envelope has fallen below that level (`activeSamples`): 2^−60 is
- * 361 dB down, far beneath the rounding of a double-precision sum, so the render stays exact
- * to rounding and never computes with subnormal numbers.
- */
-export interface OscillatorBank {
-  sampleCount: number;
-  fast: FastOscillators;
-  slow: SlowOscillators;
-}
-
-/** Ringing modes, sorted by `activeSamples` descending and padded with silent entries to a multiple of 4. */
-export interface FastOscillators {
-  count: number;
-  stateRe: Float64Array;
-  stateIm: Float64Array;
-  stepRe: Float64Array;
-  stepIm: Float64Array;
-  activeSamples: Float64Array;
-  /** A stereo bank: the state holds the mode itself, and each channel weighs it by its own pickup. */
-  gainA?: Float64Array;
-  gainB?: Float64Array;
-}
-
-/** Heavily damped modes: state (q, u = q'/ω) advanced by [[m11, m12], [m21, m22]] each sample. */
-export interface SlowOscillators {
-  count: number;
-  q: Float64Array;
-  u: Float64Array;
-  m11: Float64Array;
-  m12: Float64Array;
-  m21: Float64Array;
-  m22: Float64Array;
-  activeSamples: Float64Array;
-  gainA?: Float64Array;
-  gainB?: Float64Array;
-}
+// The storage (OscillatorBank, FastOscillators, SlowOscillators) is in oscillator-storage.ts, re-exported here.
+export type { FastOscillators, OscillatorBank, SlowOscillators } from './oscillator-storage';
 
 export const CUT_RATIO = 2 ** -60;
 export const FAST_GROUP = 4;
@@ -76,7 +26,28 @@ function samplesUntilBelow(amplitude: number, floor: number, ratePerSample: numb
   return Math.max(1, Math.min(sampleCount, samples));
 }
 
-/** Builds the oscillators of a patch's kept modes for a render of `sampleCount` samples. */
+/**
+ * Each kept mode as a ready-to-run oscillator for the renderer.
+ *
+ * A mode obeys q'' + 2σq' + ω²q = 0 with q(0) = q0, q'(0) = p0. Its exact solution, sampled every
+ * Δt = 1/fs, advances by one constant linear map per sample, so a render needs no transcendental
+ * function per sample:
+ * - Ringing modes (ω_d = √(ω² − σ²) ≥ σ) are written q(t) = Re(G·e^(λt)), λ = −σ + iω_d,
+ *   G = q0 − i(p0 + σq0)/ω_d; each sample multiplies the complex state by r = e^(λΔt) (the
+ *   "fast" bank: one complex multiply per mode per sample).
+ * - Heavily damped, critically damped and overdamped modes (σ > ω_d) use the exact 2×2 transition
+ *   matrix of the state (q, q'/ω), which is well conditioned in every regime (the "slow" bank).
+ *
+ * The pickup's weight is folded into the initial state. A pickup that reads velocity renders q'
+ * instead of q: q' obeys the same equation, with q'(0) = p0 and q''(0) = −2σp0 − ω²q0.
+ *
+ * Oscillators whose amplitude is below CUT_RATIO of the loudest one are left out, and each
+ * oscillator stops once its envelope has fallen below that level (`activeSamples`): 2^−60 is
+ * 361 dB down, far beneath the rounding of a double-precision sum, so the render stays exact
+ * to rounding and never computes with subnormal numbers.
+ *
+ * Builds the oscillators of a patch's kept modes for a render of `sampleCount` samples.
+ */
 export function buildOscillatorBank(patch: Patch, table: ModeTable, sampleCount: number, secondPickupM?: number): OscillatorBank {
   const { string, pickup, render } = patch;
   const stereo = secondPickupM !== undefined;

@@ -1,4 +1,36 @@
-import type { FastOscillators, SlowOscillators } from './oscillator-bank';
+/** A bank of oscillators ready to render (built by `buildOscillatorBank`, which explains the method). */
+export interface OscillatorBank {
+  sampleCount: number;
+  fast: FastOscillators;
+  slow: SlowOscillators;
+}
+
+/** Ringing modes, sorted by `activeSamples` descending and padded with silent entries to a multiple of 4. */
+export interface FastOscillators {
+  count: number;
+  stateRe: Float64Array;
+  stateIm: Float64Array;
+  stepRe: Float64Array;
+  stepIm: Float64Array;
+  activeSamples: Float64Array;
+  /** A stereo bank: the state holds the mode itself, and each channel weighs it by its own pickup. */
+  gainA?: Float64Array;
+  gainB?: Float64Array;
+}
+
+/** Heavily damped modes: state (q, u = q'/ω) advanced by [[m11, m12], [m21, m22]] each sample. */
+export interface SlowOscillators {
+  count: number;
+  q: Float64Array;
+  u: Float64Array;
+  m11: Float64Array;
+  m12: Float64Array;
+  m21: Float64Array;
+  m22: Float64Array;
+  activeSamples: Float64Array;
+  gainA?: Float64Array;
+  gainB?: Float64Array;
+}
 
 /**
  * Zeroed storage for `count` ringing oscillators (complex state, complex step, active length),
