@@ -84,6 +84,8 @@ export const LIMITS = {
   maxLiveDocumentBytes: 8 * 1024 * 1024,
   /** Largest patch JSON file the command line reads, in bytes. */
   maxPatchFileBytes: 4 * 1024 * 1024,
+  /** Longest id (a session's, a studio's) a socket message may carry; ids are 36-character UUIDs. */
+  maxSocketIdLength: 64,
 } as const;
 
 export type AllowedSampleRateHz = (typeof LIMITS.sampleRatesHz)[number];

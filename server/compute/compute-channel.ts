@@ -1,7 +1,6 @@
 import type { Server as HttpServer } from 'node:http';
 import { availableParallelism } from 'node:os';
-import { Server as SocketServer, type Socket } from 'socket.io';
-import type { Role } from '../../shared/access/roles';
+import { Server as SocketServer } from 'socket.io';
 import { LIVE_ACCESS_MESSAGES, SESSION_NOTICE_EVENT, type LiveAccessEndReason, type SessionNotice } from '../../shared/protocol/live-access';
 import { AccessLookup } from '../access/live-access-decision';
 import { LIVE_ACCESS_SWEEP_MS } from '../collab/live-access-guard';
@@ -15,8 +14,9 @@ import {
   type InvalidMessage,
   type JoinedMessage,
   type RefusedMessage,
-  type SubscribeRequest,
 } from '../../shared/protocol/compute-protocol';
+import type { ClientToServerEvents, InterServerEvents, ServerToClientEvents, SocketData } from '../../shared/protocol/socket-events';
+import { claimedId, parsePayload, payloadProblem, subscribeRequestSchema, unsubscribeRequestSchema } from '../../shared/protocol/socket-payloads';
 import type { AppContext } from '../app-context';
 import { tokenFromCookieHeader, userFromToken } from '../auth/authenticate';
 import { isOriginAllowed } from '../http/request-origin';
@@ -24,18 +24,12 @@ import type { CollabHub } from '../collab/collab-hub';
 import { Session } from '../db/entities/session';
 import { ComputeScheduler } from './compute-scheduler';
 import { ComputeWorker } from './compute-worker';
+import type { AppSocket } from './socket-server';
 
 const roomOf = (sessionId: string) => `session:${sessionId}`;
 
-/** A session a socket follows, as last decided. */
-interface SubscribedSession {
-  studioId: string;
-  readOnly: boolean;
-  role: Role;
-}
-
-const socketToken = (socket: Socket): string => socket.data.token as string;
-const subscribedOf = (socket: Socket): Map<string, SubscribedSession> => socket.data.sessions as Map<string, SubscribedSession>;
+const socketToken = (socket: AppSocket): string => socket.data.token;
+const subscribedOf = (socket: AppSocket) => socket.data.sessions;
 
 interface SessionCompute {
   scheduler: ComputeScheduler;
@@ -50,7 +44,7 @@ interface SessionCompute {
  * problems instead.
  */
 export function attachComputeChannel(httpServer: HttpServer, context: AppContext, hub: CollabHub, previewDurationS: number = LIMITS.previewMaxDurationS) {
-  const io = new SocketServer(httpServer, {
+  const io = new SocketServer<ClientToServerEvents, ServerToClientEvents, InterServerEvents, SocketData>(httpServer, {
     path: '/socket.io/',
     serveClient: false,
     destroyUpgrade: false,
@@ -73,7 +67,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
         socket.data.userId = found.user.id;
         // Kept to check again on every access change (see recheckSockets below).
         socket.data.token = raw;
-        socket.data.sessions = new Map<string, SubscribedSession>();
+        socket.data.sessions = new Map();
         next();
       },
       () => next(new Error('unauthenticated')),
@@ -121,50 +115,56 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
   const onChange = (sessionId: string) => computes.get(sessionId)?.scheduler.schedule();
   hub.on('change', onChange);
 
-  io.on('connection', (socket: Socket) => {
+  io.on('connection', (socket) => {
     const refuse = (sessionId: string, code: RefusedMessage['code'], message: string) =>
       socket.emit(COMPUTE_EVENTS.refused, { type: 'refused', sessionId, code, message } satisfies RefusedMessage);
 
-    socket.on(COMPUTE_EVENTS.subscribe, async (request: SubscribeRequest) => {
+    // Payloads are parsed, never trusted: a malformed one is refused with the field it got wrong.
+    socket.on(COMPUTE_EVENTS.subscribe, async (payload: unknown) => {
       try {
-        const sessionId = typeof request?.sessionId === 'string' ? request.sessionId : '';
-        if (request?.protocolVersion !== PROTOCOL_VERSION) return refuse(sessionId, 'protocol', `protocol version ${PROTOCOL_VERSION} is required`);
+        const request = parsePayload(subscribeRequestSchema, payload);
+        if (!request.ok) return refuse(claimedId(payload, 'sessionId'), 'bad_request', payloadProblem(request.issues));
+        const { sessionId, protocolVersion } = request.value;
+        if (protocolVersion !== PROTOCOL_VERSION) return refuse(sessionId, 'protocol', `protocol version ${PROTOCOL_VERSION} is required`);
         const access = await new AccessLookup(context).sessionAccess(socketToken(socket), sessionId);
         if (!access.ok) return access.reason === 'signed-out' ? refuse(sessionId, 'unauthenticated', LIVE_ACCESS_MESSAGES['signed-out']) : refuse(sessionId, 'not_found', 'Session not found');
         await socket.join(roomOf(sessionId));
         subscribedOf(socket).set(sessionId, { studioId: access.studioId, readOnly: access.readOnly, role: access.role });
         socket.emit(COMPUTE_EVENTS.joined, { type: 'joined', sessionId, role: access.role, readOnly: access.readOnly, archived: access.archived } satisfies JoinedMessage);
         const entry = computeFor(sessionId);
-        if (entry.latest && !entry.scheduler.busy) socket.emit(entry.latest.type === 'result' ? COMPUTE_EVENTS.result : COMPUTE_EVENTS.invalid, entry.latest);
-        else entry.scheduler.schedule();
+        if (entry.latest && !entry.scheduler.busy) {
+          if (entry.latest.type === 'result') socket.emit(COMPUTE_EVENTS.result, entry.latest);
+          else socket.emit(COMPUTE_EVENTS.invalid, entry.latest);
+        } else entry.scheduler.schedule();
       } catch (error) {
         context.log(`compute: subscribe failed: ${(error as Error).message}`);
       }
     });
 
-    socket.on(COMPUTE_EVENTS.unsubscribe, (request: { sessionId?: unknown }) => {
-      if (typeof request?.sessionId !== 'string') return;
-      subscribedOf(socket).delete(request.sessionId);
-      void socket.leave(roomOf(request.sessionId));
+    socket.on(COMPUTE_EVENTS.unsubscribe, (payload: unknown) => {
+      const request = parsePayload(unsubscribeRequestSchema, payload);
+      if (!request.ok) return refuse(claimedId(payload, 'sessionId'), 'bad_request', payloadProblem(request.issues));
+      subscribedOf(socket).delete(request.value.sessionId);
+      void socket.leave(roomOf(request.value.sessionId));
     });
   });
 
-  const notify = (socket: Socket, notice: SessionNotice) => socket.emit(SESSION_NOTICE_EVENT, notice);
-  const endAccess = (socket: Socket, sessionId: string, reason: LiveAccessEndReason) => {
+  const notify = (socket: AppSocket, notice: SessionNotice) => socket.emit(SESSION_NOTICE_EVENT, notice);
+  const endAccess = (socket: AppSocket, sessionId: string, reason: LiveAccessEndReason) => {
     notify(socket, { kind: 'access-ended', sessionId, reason, message: LIVE_ACCESS_MESSAGES[reason] });
     subscribedOf(socket).delete(sessionId);
     void socket.leave(roomOf(sessionId));
   };
 
   /** The latest check of each socket; an older check finishing later is ignored. */
-  const latestCheck = new WeakMap<Socket, number>();
+  const latestCheck = new WeakMap<AppSocket, number>();
   let checks = 0;
 
   /**
    * Decides again, for each socket, whether its token is still good and what it may do in each
    * session it follows; a void token ends with a notice per session and a disconnect.
    */
-  async function recheckSockets(sockets: Socket[], userGone: boolean): Promise<void> {
+  async function recheckSockets(sockets: AppSocket[], userGone: boolean): Promise<void> {
     const lookup = new AccessLookup(context);
     await Promise.all(
       sockets.map(async (socket) => {

@@ -5,22 +5,10 @@ import { renderBank } from '../../shared/engine/render-bank';
 import { buildOscillatorBank, type OscillatorBank } from '../../shared/engine/oscillator-bank';
 import { renderSampleCount } from '../../shared/engine/render-patch';
 import type { Patch } from '../../shared/patch/patch-schema';
+import type { ComputeResultMessage } from '../../shared/protocol/compute-protocol';
 
-export interface ComputeOutput {
-  f0Hz: number;
-  waveSpeedMPerS: number;
-  totalEnergyJ: number;
-  modeCount: number;
-  frequencyHz: Float64Array;
-  aM: Float64Array;
-  vMPerS: Float64Array;
-  energyJ: Float64Array;
-  decayRatePerS: Float64Array;
-  previewSampleRateHz: number;
-  preview: Float32Array;
-  previewPhysicalPeak: number;
-  computeMs: number;
-}
+/** A compute result without its envelope (type, session, sequence), which the channel adds. */
+export type ComputeOutput = Omit<ComputeResultMessage, 'type' | 'sessionId' | 'sequence'>;
 
 /**
  * The mode table of the patch itself (as the CLI prints it) and a bounded preview, peak-normalised

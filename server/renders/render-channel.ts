@@ -1,9 +1,10 @@
-import type { Server as SocketServer, Socket } from 'socket.io';
-import { RENDER_EVENTS, type RenderRefusedMessage, type RenderSubscribeRequest } from '../../shared/protocol/render-protocol';
+import { RENDER_EVENTS, type RenderRefusedMessage } from '../../shared/protocol/render-protocol';
+import { claimedId, parsePayload, payloadProblem, renderSubscribeRequestSchema } from '../../shared/protocol/socket-payloads';
 import { LIVE_ACCESS_MESSAGES } from '../../shared/protocol/live-access';
 import { AccessLookup } from '../access/live-access-decision';
 import type { AppContext } from '../app-context';
 import { LIVE_ACCESS_SWEEP_MS } from '../collab/live-access-guard';
+import type { AppSocket, AppSocketServer } from '../compute/socket-server';
 import { Membership } from '../db/entities/membership';
 import type { RenderService } from './render-service';
 
@@ -14,41 +15,45 @@ const roomOf = (studioId: string) => `${ROOM_PREFIX}${studioId}`;
  * The renders channel on the app's socket.io server: a member subscribes to their studio and is
  * sent every state and progress change of its render jobs. Anyone else is refused as "not found".
  */
-export function attachRenderChannel(io: SocketServer, context: AppContext, service: RenderService): () => void {
+export function attachRenderChannel(io: AppSocketServer, context: AppContext, service: RenderService): () => void {
   const stop = service.onProgress((message) => io.to(roomOf(message.studioId)).emit(RENDER_EVENTS.progress, message));
-  io.on('connection', (socket: Socket) => {
-    socket.on(RENDER_EVENTS.subscribe, async (request: RenderSubscribeRequest) => {
-      const studioId = typeof request?.studioId === 'string' ? request.studioId : '';
+  io.on('connection', (socket) => {
+    const refuse = (studioId: string, code: RenderRefusedMessage['code'], message: string) =>
+      socket.emit(RENDER_EVENTS.refused, { type: 'refused', studioId, code, message } satisfies RenderRefusedMessage);
+    // Payloads are parsed, never trusted: a malformed one is refused with the field it got wrong.
+    socket.on(RENDER_EVENTS.subscribe, async (payload: unknown) => {
+      const request = parsePayload(renderSubscribeRequestSchema, payload);
+      if (!request.ok) return refuse(claimedId(payload, 'studioId'), 'bad_request', payloadProblem(request.issues));
+      const { studioId } = request.value;
       try {
-        const membership = studioId ? await context.dataSource.getRepository(Membership).findOneBy({ userId: socket.data.userId, studioId }) : null;
-        if (!membership) {
-          socket.emit(RENDER_EVENTS.refused, { type: 'refused', studioId, code: 'not_found', message: 'Studio not found' } satisfies RenderRefusedMessage);
-          return;
-        }
+        const membership = await context.dataSource.getRepository(Membership).findOneBy({ userId: socket.data.userId, studioId });
+        if (!membership) return refuse(studioId, 'not_found', 'Studio not found');
         await socket.join(roomOf(studioId));
         socket.emit(RENDER_EVENTS.joined, { type: 'joined', studioId });
       } catch (error) {
         context.log(`renders: subscribe failed: ${(error as Error).message}`);
       }
     });
-    socket.on(RENDER_EVENTS.unsubscribe, (request: { studioId?: unknown }) => {
-      if (typeof request?.studioId === 'string') void socket.leave(roomOf(request.studioId));
+    socket.on(RENDER_EVENTS.unsubscribe, (payload: unknown) => {
+      const request = parsePayload(renderSubscribeRequestSchema, payload);
+      if (!request.ok) return refuse(claimedId(payload, 'studioId'), 'bad_request', payloadProblem(request.issues));
+      void socket.leave(roomOf(request.value.studioId));
     });
   });
 
-  const studiosOf = (socket: Socket) => [...socket.rooms].filter((room) => room.startsWith(ROOM_PREFIX)).map((room) => room.slice(ROOM_PREFIX.length));
+  const studiosOf = (socket: AppSocket) => [...socket.rooms].filter((room) => room.startsWith(ROOM_PREFIX)).map((room) => room.slice(ROOM_PREFIX.length));
   /** The latest check of each socket; an older check finishing later is ignored. */
-  const latestCheck = new WeakMap<Socket, number>();
+  const latestCheck = new WeakMap<AppSocket, number>();
   let checks = 0;
 
   /** Checks each socket's studios again; a studio it may no longer follow is left, with a `refused` message saying why. */
-  async function recheck(sockets: Socket[]): Promise<void> {
+  async function recheck(sockets: AppSocket[]): Promise<void> {
     const lookup = new AccessLookup(context);
     await Promise.all(
       sockets.map(async (socket) => {
         const check = ++checks;
         latestCheck.set(socket, check);
-        const token = socket.data.token as string | undefined;
+        const token = socket.data.token;
         if (token === undefined) return;
         const decisions = await Promise.all(studiosOf(socket).map(async (studioId) => ({ studioId, access: await lookup.studioAccess(token, studioId) })));
         if (latestCheck.get(socket) !== check) return;

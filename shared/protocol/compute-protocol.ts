@@ -65,6 +65,11 @@ export interface InvalidMessage {
 export interface RefusedMessage {
   type: 'refused';
   sessionId: string;
-  code: 'unauthenticated' | 'not_found' | 'protocol';
+  /** `bad_request`: the request's payload had the wrong shape; the message names the field. */
+  code: 'unauthenticated' | 'not_found' | 'protocol' | 'bad_request';
   message: string;
+}
+
+export interface UnsubscribeRequest {
+  sessionId: string;
 }

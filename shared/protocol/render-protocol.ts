@@ -26,9 +26,15 @@ export interface RenderProgressMessage {
   error: string | null;
 }
 
+export interface RenderJoinedMessage {
+  type: 'joined';
+  studioId: string;
+}
+
 export interface RenderRefusedMessage {
   type: 'refused';
   studioId: string;
-  code: 'unauthenticated' | 'not_found';
+  /** `bad_request`: the request's payload had the wrong shape; the message names the field. */
+  code: 'unauthenticated' | 'not_found' | 'bad_request';
   message: string;
 }

@@ -10,11 +10,12 @@ import {
   COMPUTE_EVENTS,
   PROTOCOL_VERSION,
   type ComputeResultMessage,
-  type InvalidMessage,
-  type JoinedMessage,
   type RefusedMessage,
 } from '../../../shared/protocol/compute-protocol';
 import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, SESSION_NOTICE_EVENT, type LiveAccessEndReason, type SessionNotice } from '../../../shared/protocol/live-access';
+import type { ClientToServerEvents, ServerToClientEvents, WireBinary, WireComputeResultMessage } from '../../../shared/protocol/socket-events';
+import { computeResultMessageSchema, invalidMessageSchema, joinedMessageSchema, refusedMessageSchema, sessionNoticeSchema } from '../../../shared/protocol/socket-payloads';
+import { MalformedMessages } from '../socket-messages';
 
 /** What a teammate shares about themselves while in a session. */
 export interface Presence {
@@ -83,17 +84,18 @@ export interface SessionConnectionOptions {
   WebSocketPolyfill?: typeof WebSocket;
 }
 
-/** Socket.io delivers binary as ArrayBuffer in the browser and as Buffer in Node; copy into aligned typed arrays. */
-function toFloat64(value: ArrayBuffer | ArrayBufferView): Float64Array {
-  if (value instanceof ArrayBuffer) return new Float64Array(value.slice(0));
-  return new Float64Array(value.buffer.slice(value.byteOffset, value.byteOffset + value.byteLength));
+/**
+ * Socket.io delivers binary as ArrayBuffer in the browser and as Buffer in Node; copy into aligned
+ * typed arrays. The message has passed computeResultMessageSchema, so each holds whole numbers.
+ */
+function copyBytes(value: WireBinary): ArrayBuffer {
+  if (ArrayBuffer.isView(value)) return value.buffer.slice(value.byteOffset, value.byteOffset + value.byteLength) as ArrayBuffer;
+  return value.slice(0);
 }
-function toFloat32(value: ArrayBuffer | ArrayBufferView): Float32Array {
-  if (value instanceof ArrayBuffer) return new Float32Array(value.slice(0));
-  return new Float32Array(value.buffer.slice(value.byteOffset, value.byteOffset + value.byteLength));
-}
+const toFloat64 = (value: WireBinary) => new Float64Array(copyBytes(value));
+const toFloat32 = (value: WireBinary) => new Float32Array(copyBytes(value));
 
-export function decodeComputeResult(message: ComputeResultMessage<ArrayBuffer | ArrayBufferView, ArrayBuffer | ArrayBufferView>): ComputeResult {
+export function decodeComputeResult(message: WireComputeResultMessage): ComputeResult {
   return {
     ...message,
     frequencyHz: toFloat64(message.frequencyHz),
@@ -151,7 +153,9 @@ export class SessionConnection {
   /** The document, its provider and undo manager are replaced when the server asks for a fresh start (see `resetDocument`). */
   doc!: Y.Doc;
   provider!: WebsocketProvider;
-  readonly socket: Socket;
+  readonly socket: Socket<ServerToClientEvents, ClientToServerEvents>;
+  /** Messages from the compute channel that did not match their schema: dropped, counted, the first of each kind logged. */
+  readonly malformed = new MalformedMessages();
   undoManager!: Y.UndoManager;
   /** The origin of this person's edits; only these are undone. */
   readonly localOrigin = Symbol('local-edit');
@@ -189,19 +193,24 @@ export class SessionConnection {
       withCredentials: true,
     });
     this.socket.on('connect', () => this.socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId: options.sessionId }));
-    this.socket.on(COMPUTE_EVENTS.joined, (message: JoinedMessage) => {
+    // Every message is parsed before use: a malformed one is dropped and counted, never thrown on.
+    const { malformed } = this;
+    this.socket.on(COMPUTE_EVENTS.joined, malformed.listener(COMPUTE_EVENTS.joined, joinedMessageSchema, (message) => {
       if (this.snapshot.accessEnded) return;
       this.update({ role: message.role, readOnly: message.readOnly, readOnlyReason: message.archived ? LIVE_ACCESS_MESSAGES.readOnlyArchived : null, refused: null });
       const current = this.provider.awareness.getLocalState() as Presence | null;
       if (current) this.provider.awareness.setLocalState({ ...current, role: message.role });
-    });
-    this.socket.on(COMPUTE_EVENTS.refused, (message: RefusedMessage) => this.update({ refused: message }));
-    this.socket.on(COMPUTE_EVENTS.result, (message: ComputeResultMessage<ArrayBuffer, ArrayBuffer>) => {
+    }));
+    this.socket.on(COMPUTE_EVENTS.refused, malformed.listener(COMPUTE_EVENTS.refused, refusedMessageSchema, (message) => this.update({ refused: message })));
+    this.socket.on(COMPUTE_EVENTS.result, malformed.listener(COMPUTE_EVENTS.result, computeResultMessageSchema, (message) => {
+      if (message.sessionId !== options.sessionId) return;
       if (this.snapshot.result && message.sequence <= this.snapshot.result.sequence) return;
       this.update({ result: decodeComputeResult(message), computeIssues: [] });
-    });
-    this.socket.on(COMPUTE_EVENTS.invalid, (message: InvalidMessage) => this.update({ computeIssues: message.issues }));
-    this.socket.on(SESSION_NOTICE_EVENT, (notice: SessionNotice) => this.onNotice(notice));
+    }));
+    this.socket.on(COMPUTE_EVENTS.invalid, malformed.listener(COMPUTE_EVENTS.invalid, invalidMessageSchema, (message) => {
+      if (message.sessionId === options.sessionId) this.update({ computeIssues: message.issues });
+    }));
+    this.socket.on(SESSION_NOTICE_EVENT, malformed.listener(SESSION_NOTICE_EVENT, sessionNoticeSchema, (notice) => this.onNotice(notice)));
   }
 
   /** A fresh document, provider and undo manager, wired to the snapshot. */
