@@ -41,7 +41,7 @@ export interface TautlineServer {
  * refused.
  */
 export function createTautlineServer(context: AppContext, options: AppOptions & { previewDurationS?: number } = {}): TautlineServer {
-  const hub = new CollabHub(typeormCollabStorage(context.dataSource), context.log);
+  const hub = new CollabHub(typeormCollabStorage(context.dataSource, context.clock), context.log);
   context.collab = hub;
   const server = createServer(createApp(context, options));
   const compute = attachComputeChannel(server, context, hub, options.previewDurationS);

@@ -1,5 +1,6 @@
 import type { Server } from 'node:http';
 import type { AppContext } from './app-context';
+import { systemClock } from './clock';
 import { CLIENT_DIST_DIR, databasePath, DEV_CLIENT_PORT, isLoopbackHost, loadServerConfig, serverHost, serverPort } from './config';
 import { openDatabase } from './db/data-source';
 import { startFakeSmtpServer } from './mail/fake-smtp-server';
@@ -30,7 +31,7 @@ export async function startServer(options: { serveClient: boolean }): Promise<{ 
     for (const account of DEMO_ACCOUNTS) log(`  ${account.role.padEnd(9)} ${account.email}`);
   }
 
-  const mailbox = process.env.SMTP_URL ? null : await startFakeSmtpServer();
+  const mailbox = process.env.SMTP_URL ? null : await startFakeSmtpServer(0, systemClock);
   const mailer = createSmtpMailer(process.env.SMTP_URL || (mailbox as NonNullable<typeof mailbox>).smtpUrl, MAIL_FROM);
   if (mailbox && config.mailboxRemote) {
     log('!!! WARNING: DEV_MAILBOX_REMOTE=true: the local mailbox at /dev/mailbox answers ANY client that can reach this server.');
@@ -45,7 +46,7 @@ export async function startServer(options: { serveClient: boolean }): Promise<{ 
   }
   if (!mailbox && config.mailboxRemote) log('DEV_MAILBOX_REMOTE is ignored: SMTP_URL is set, so there is no local mailbox');
 
-  const context: AppContext = { dataSource, config, mailer, mailbox, clock: () => new Date(), log, access: inProcessAccessEvents() };
+  const context: AppContext = { dataSource, config, mailer, mailbox, clock: systemClock, log, access: inProcessAccessEvents() };
   const tautline = createTautlineServer(context, { clientDistDir: options.serveClient ? CLIENT_DIST_DIR : undefined });
   const server = tautline.server;
   const boundPort = await tautline.listen(port, host);

@@ -1,4 +1,5 @@
 import { parseArgs } from 'node:util';
+import { systemClock } from '../clock';
 import { CliError } from './cli-error';
 import { modesCommand, modesUsage } from './commands/modes';
 import { renderCommand, renderUsage } from './commands/render';
@@ -35,7 +36,7 @@ async function run(argv: string[]): Promise<string> {
     if (flags.out || flags.format || flags.normalize) throw new CliError(`modes takes no flags: ${modesUsage}`);
     return modesCommand(rest);
   }
-  if (command === 'render') return renderCommand(rest, flags, (line) => process.stderr.write(`${line}\n`));
+  if (command === 'render') return renderCommand(rest, flags, (line) => process.stderr.write(`${line}\n`), systemClock);
   throw new CliError(`unknown command ${JSON.stringify(command)}; commands: modes, render (see --help)`);
 }
 

@@ -24,7 +24,7 @@ export interface CollabStorage {
 }
 
 /** The TypeORM implementation on the sessions table and the session_updates log. */
-export function typeormCollabStorage(dataSource: DataSource): CollabStorage {
+export function typeormCollabStorage(dataSource: DataSource, clock: () => Date): CollabStorage {
   return {
     async load(sessionId) {
       const session = await dataSource.getRepository(Session).findOneBy({ id: sessionId });
@@ -55,7 +55,7 @@ export function typeormCollabStorage(dataSource: DataSource): CollabStorage {
     },
     async savePatch(sessionId, patch, userId) {
       // Only these columns: a full save would write back a stale docState over a fresh snapshot.
-      const changes: QueryDeepPartialEntity<Session> = { patch: patch as QueryDeepPartialEntity<Patch>, updatedAt: new Date(), ...(userId ? { updatedById: userId } : {}) };
+      const changes: QueryDeepPartialEntity<Session> = { patch: patch as QueryDeepPartialEntity<Patch>, updatedAt: clock(), ...(userId ? { updatedById: userId } : {}) };
       await dataSource.getRepository(Session).update({ id: sessionId }, changes);
     },
   };

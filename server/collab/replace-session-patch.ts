@@ -10,7 +10,7 @@ import { SessionUpdate } from '../db/entities/session-update';
  * so the next connection starts from the new patch. The patch column is current either way.
  */
 export async function replaceSessionPatch(context: AppContext, sessionId: string, patch: Patch, userId: string): Promise<void> {
-  const columns: QueryDeepPartialEntity<Session> = { patch: patch as QueryDeepPartialEntity<Patch>, updatedById: userId, updatedAt: new Date() };
+  const columns: QueryDeepPartialEntity<Session> = { patch: patch as QueryDeepPartialEntity<Patch>, updatedById: userId, updatedAt: context.clock() };
   const resetStored = () =>
     context.dataSource.transaction(async (manager) => {
       await manager.update(Session, { id: sessionId }, { ...columns, docState: null });

@@ -3,6 +3,7 @@ import type { AddressInfo } from 'node:net';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import type { MailboxMessageView } from '../../shared/api/responses';
+import { systemClock } from '../clock';
 
 /** What the mailbox keeps of each message (the same shape the API answers). */
 export type MailboxMessage = MailboxMessageView;
@@ -21,7 +22,7 @@ const MAX_MESSAGES = 500;
  * A local SMTP server (smtp-server) that keeps every message it receives, in memory, for the
  * development mailbox page and the tests. Listens on 127.0.0.1 only; no mail leaves the machine.
  */
-export async function startFakeSmtpServer(port = 0): Promise<FakeMailbox> {
+export async function startFakeSmtpServer(port = 0, clock: () => Date = systemClock): Promise<FakeMailbox> {
   const stored: MailboxMessage[] = [];
   const waiters: Array<{ to: string; since: number; resolve: (message: MailboxMessage) => void }> = [];
 
@@ -41,7 +42,7 @@ export async function startFakeSmtpServer(port = 0): Promise<FakeMailbox> {
             subject: parsed.subject ?? '',
             text,
             links: text.match(/https?:\/\/[^\s<>"]+/g) ?? [],
-            receivedAt: new Date().toISOString(),
+            receivedAt: clock().toISOString(),
           };
           stored.push(message);
           if (stored.length > MAX_MESSAGES) stored.shift();

@@ -1,11 +1,10 @@
 import { readdirSync, rmSync } from 'node:fs';
 import { rm } from 'node:fs/promises';
 import { join } from 'node:path';
-import { In } from 'typeorm';
+import { In, type DataSource } from 'typeorm';
 import type { RenderProgressMessage } from '../../shared/protocol/render-protocol';
 import { levellingNote } from '../../shared/renders/render-levelling';
 import type { RenderState } from '../../shared/renders/render-settings';
-import type { AppContext } from '../app-context';
 import { Render } from '../db/entities/render';
 import { writeFileAtomic } from '../files/write-file-atomic';
 import { renderWavFile } from './render-job-runner';
@@ -15,6 +14,17 @@ import { RenderTaskPool, TaskCancelledError } from './render-task-pool';
 import { ensureRendersDir } from './renders-dir';
 
 const ACTIVE: RenderState[] = ['queued', 'rendering'];
+
+/**
+ * What the service needs from the server's context. AppContext satisfies it; the service names only
+ * these parts, so app-context.ts (which holds the service) and this file do not import each other.
+ */
+export interface RenderServiceContext {
+  dataSource: DataSource;
+  config: { rendersDir: string; renderQuotaBytes: number };
+  clock: () => Date;
+  log: (line: string) => void;
+}
 
 /** Raised when a job would not fit in its studio's render storage. */
 export class RenderQuotaError extends Error {}
@@ -42,7 +52,7 @@ export class RenderService {
   private closed = false;
 
   constructor(
-    private readonly context: AppContext,
+    private readonly context: RenderServiceContext,
     pool?: RenderTaskPool,
   ) {
     ensureRendersDir(context.config.rendersDir);

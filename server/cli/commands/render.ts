@@ -24,7 +24,7 @@ function pick<T extends string>(value: string | undefined, allowed: readonly T[]
 }
 
 /** `render PATCH.json --out FILE.wav`: renders the pickup signal to a mono WAV file. */
-export async function renderCommand(positionals: string[], options: RenderOptions, warn: (line: string) => void): Promise<string> {
+export async function renderCommand(positionals: string[], options: RenderOptions, warn: (line: string) => void, clock: () => Date): Promise<string> {
   if (positionals.length !== 1) throw new CliError(`usage: ${renderUsage}`);
   if (!options.out) throw new CliError(`--out is required: ${renderUsage}`);
   if (!options.out.toLowerCase().endsWith('.wav')) throw new CliError(`--out must name a .wav file, got ${JSON.stringify(options.out)}`);
@@ -49,7 +49,7 @@ export async function renderCommand(positionals: string[], options: RenderOption
     samples,
     patch.render.sampleRateHz,
     format,
-    { title: patch.name, software: 'Tautline', date: new Date().toISOString().slice(0, 10) },
+    { title: patch.name, software: 'Tautline', date: clock().toISOString().slice(0, 10) },
     seededRandom(0x7a017),
   );
   if (encoded.clippedCount > 0) {

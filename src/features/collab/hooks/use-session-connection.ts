@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useState, useSyncExternalStore } from 'react';
+import { useCallback, useEffect, useRef, useState, useSyncExternalStore } from 'react';
 import { SessionConnection, type Presence, type SessionSnapshot } from '../../../lib/live-session/session-connection';
 
 /**
@@ -13,11 +13,15 @@ export function useSessionConnection(
   // Raised to open the session again after the server ended it (signed in again, for instance).
   const [opening, setOpening] = useState(0);
   const reopen = useCallback(() => setOpening((count) => count + 1), []);
+  // Presence changes go through connection.setPresence, not a reconnect: opening reads the latest one.
+  const presenceRef = useRef(presence);
   useEffect(() => {
-    const opened = new SessionConnection({ baseUrl: window.location.origin, sessionId, presence });
+    presenceRef.current = presence;
+  });
+  useEffect(() => {
+    const opened = new SessionConnection({ baseUrl: window.location.origin, sessionId, presence: presenceRef.current });
     setConnection(opened);
     return () => opened.destroy();
-    // Presence changes go through connection.setPresence, not a reconnect.
   }, [sessionId, opening]);
   const snapshot = useSyncExternalStore(
     connection?.subscribe ?? (() => () => undefined),

@@ -1,4 +1,4 @@
-import { memo, useEffect, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type Konva from 'konva';
 import { Layer, Line, Stage, Text } from 'react-konva';
 import { modeAmplitudesAt, modeShapeTable, stringShapeM } from '../../../../shared/engine/modal-motion';
@@ -20,6 +20,18 @@ const SPEEDS = [
   { id: '10000', label: '1/10 000 of real time' },
 ] as const;
 type SpeedId = (typeof SPEEDS)[number]['id'];
+
+/** The string's shape as stage points: the width spread over the plot, heights scaled so peakM just fits. */
+function linePoints(shape: Float64Array, peakM: number, widthPx: number): number[] {
+  const drawable = widthPx - 2 * MARGIN_PX;
+  const half = HEIGHT_PX / 2 - 12;
+  const points = new Array<number>(MOTION_POINTS * 2);
+  for (let j = 0; j < MOTION_POINTS; j++) {
+    points[2 * j] = MARGIN_PX + (j / (MOTION_POINTS - 1)) * drawable;
+    points[2 * j + 1] = HEIGHT_PX / 2 - (shape[j] / peakM) * half;
+  }
+  return points;
+}
 
 /**
  * The string's motion after release, built from the modes the server sent
@@ -50,29 +62,21 @@ export const StringMotion = memo(function StringMotion({ result, lengthM, dark }
     return { count, xs, shapes, peakM, amplitudes, shape };
   }, [result, lengthM]);
 
-  const toPoints = (shape: Float64Array) => {
-    const drawable = widthPx - 2 * MARGIN_PX;
-    const half = HEIGHT_PX / 2 - 12;
-    const points = new Array<number>(MOTION_POINTS * 2);
-    for (let j = 0; j < MOTION_POINTS; j++) {
-      points[2 * j] = MARGIN_PX + (j / (MOTION_POINTS - 1)) * drawable;
-      points[2 * j + 1] = HEIGHT_PX / 2 - (shape[j] / model.peakM) * half;
-    }
-    return points;
-  };
-
-  const draw = (tS: number) => {
-    stringShapeM(modeAmplitudesAt(result, model.count, tS, model.amplitudes), model.shapes, MOTION_POINTS, model.shape);
-    lineRef.current?.points(toPoints(model.shape));
-    clockRef.current?.text(`t = ${(tS * 1000).toFixed(2)} ms after release`);
-    lineRef.current?.getLayer()?.batchDraw();
-  };
+  // Drawing depends on the result, its model and the width; a new one restarts from the release.
+  const draw = useCallback(
+    (tS: number) => {
+      stringShapeM(modeAmplitudesAt(result, model.count, tS, model.amplitudes), model.shapes, MOTION_POINTS, model.shape);
+      lineRef.current?.points(linePoints(model.shape, model.peakM, widthPx));
+      clockRef.current?.text(`t = ${(tS * 1000).toFixed(2)} ms after release`);
+      lineRef.current?.getLayer()?.batchDraw();
+    },
+    [result, model, widthPx],
+  );
 
   useEffect(() => {
     simTimeRef.current = 0;
     draw(0);
-    // Drawing depends on the model and width only; a new result restarts from the release.
-  }, [model, widthPx]);
+  }, [draw]);
 
   useEffect(() => {
     if (!running) return;
@@ -87,7 +91,7 @@ export const StringMotion = memo(function StringMotion({ result, lengthM, dark }
       frame = requestAnimationFrame(step);
     });
     return () => cancelAnimationFrame(frame);
-  }, [running, speed, model, widthPx]);
+  }, [running, speed, result, draw]);
 
   const colours = dark ? { background: '#171b22', axis: '#323a4a', line: '#e8b64f', text: '#b7bfcc' } : { background: '#ffffff', axis: '#b7bfcc', line: '#a8741a', text: '#323a4a' };
   return (
@@ -125,7 +129,7 @@ export const StringMotion = memo(function StringMotion({ result, lengthM, dark }
           <Layer listening={false}>
             <Line points={[0, 0, widthPx, 0, widthPx, HEIGHT_PX, 0, HEIGHT_PX]} closed fill={colours.background} />
             <Line points={[MARGIN_PX, HEIGHT_PX / 2, widthPx - MARGIN_PX, HEIGHT_PX / 2]} stroke={colours.axis} strokeWidth={1} />
-            <Line ref={lineRef} points={toPoints(model.shape)} stroke={colours.line} strokeWidth={2} />
+            <Line ref={lineRef} points={linePoints(model.shape, model.peakM, widthPx)} stroke={colours.line} strokeWidth={2} />
             <Text ref={clockRef} x={MARGIN_PX} y={6} text="t = 0.00 ms after release" fontSize={11} fill={colours.text} />
           </Layer>
         </Stage>

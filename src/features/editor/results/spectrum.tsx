@@ -76,7 +76,7 @@ function SpectrumPlot({ result, spectrum, widthPx }: SpectrumPlotProps) {
     }
     const line = parts.join('');
     return { line, area: `${line}L${(MARGINS.left + columns - 0.5).toFixed(1)} ${plotBottom}L${(MARGINS.left + 0.5).toFixed(1)} ${plotBottom}Z` };
-  }, [spectrum, toHz, plotRight, y]);
+  }, [spectrum, toHz, plotRight, plotBottom, y]);
 
   const modeTicks = useMemo(() => {
     const columns = new Set<number>();
