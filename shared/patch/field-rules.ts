@@ -12,7 +12,7 @@ type NumberKeys<O> = { [K in keyof O & string]: O[K] extends z.ZodType ? (z.outp
  * Every numeric field of a patch as a dotted path, `'string.lengthM' | 'damping.b1PerS' | …`,
  * derived from the schema's types: a number added to a section of `patchSchema` joins it.
  */
-export type PatchNumberField = { [S in keyof Shape]: `${S}.${NumberKeys<SectionFields<S>>}` }[keyof Shape];
+export type PatchNumberField = { [S in keyof Shape]: [SectionFields<S>] extends [never] ? never : `${S}.${NumberKeys<SectionFields<S>>}` }[keyof Shape];
 
 /**
  * The unit of each numeric field, as the panels show it ('' for a plain count or coefficient).
