@@ -1,11 +1,13 @@
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { io } from 'socket.io-client';
+import { io, type Socket as ClientSocket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { patchDoc } from '../../shared/collab/patch-doc';
 import { modeWavenumber } from '../../shared/engine/mode-frequencies';
-import { COMPUTE_EVENTS, PROTOCOL_VERSION, type RefusedMessage } from '../../shared/protocol/compute-protocol';
+import { COMPUTE_EVENTS, PROTOCOL_VERSION, type JoinedMessage, type RefusedMessage } from '../../shared/protocol/compute-protocol';
+import { RENDER_EVENTS } from '../../shared/protocol/render-protocol';
+import type { ClientToServerEvents, ServerToClientEvents } from '../../shared/protocol/socket-events';
 import type { ComputeResult, SessionConnection } from '../../src/lib/live-session/session-connection';
 import { openClient, waitForSnapshot } from '../support/collab-client';
 import { openRawCollabClient } from '../support/raw-collab-client';
@@ -123,6 +125,69 @@ describe('compute channel', () => {
       socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: 0, sessionId: fixture.sessionId });
     });
     expect(wrongVersion.code).toBe('protocol');
+    socket.close();
+  });
+});
+
+describe('payloads that arrive over the socket are parsed, never trusted', () => {
+  /** A signed-in raw socket.io client, typed by the app's one event map. */
+  async function rawSocket(token: string): Promise<ClientSocket<ServerToClientEvents, ClientToServerEvents>> {
+    const socket: ClientSocket<ServerToClientEvents, ClientToServerEvents> = io(server.baseUrl, { path: '/socket.io/', transports: ['websocket'], auth: { token }, reconnection: false });
+    await new Promise<void>((resolve, reject) => {
+      socket.once('connect', resolve);
+      socket.once('connect_error', reject);
+    });
+    return socket;
+  }
+
+  /** Sends a raw payload (the event map is bypassed on purpose) and waits for the channel's answer. */
+  function answerTo<E extends 'compute:refused' | 'renders:refused'>(socket: ClientSocket<ServerToClientEvents, ClientToServerEvents>, send: string, answer: E, payload: unknown) {
+    return new Promise<Parameters<ServerToClientEvents[E]>[0]>((resolve) => {
+      (socket as unknown as { once: (event: string, listener: (message: unknown) => void) => void }).once(answer, (message) => resolve(message as Parameters<ServerToClientEvents[E]>[0]));
+      (socket as unknown as { emit: (event: string, payload: unknown) => void }).emit(send, payload);
+    });
+  }
+
+  it('refuses a subscribe of the wrong shape with bad_request naming the field, and keeps serving the same socket and others', async () => {
+    const socket = await rawSocket(fixture.members.designer.token);
+    const numberId = await answerTo(socket, COMPUTE_EVENTS.subscribe, COMPUTE_EVENTS.refused, { protocolVersion: PROTOCOL_VERSION, sessionId: 42 });
+    expect(numberId).toEqual({ type: 'refused', sessionId: '', code: 'bad_request', message: 'sessionId must be a string, got 42' });
+
+    const noVersion = await answerTo(socket, COMPUTE_EVENTS.subscribe, COMPUTE_EVENTS.refused, { sessionId: fixture.sessionId });
+    expect(noVersion).toEqual({ type: 'refused', sessionId: fixture.sessionId, code: 'bad_request', message: 'protocolVersion is required' });
+
+    // 40,000 characters: under socket.io's 64 KB message cap, so it reaches the handler.
+    const huge = 'x'.repeat(40_000);
+    const extra = await answerTo(socket, COMPUTE_EVENTS.subscribe, COMPUTE_EVENTS.refused, { protocolVersion: PROTOCOL_VERSION, sessionId: fixture.sessionId, note: huge });
+    expect(extra.code).toBe('bad_request');
+    expect(extra.message).toBe(`note is not part of this message, got "${'x'.repeat(40)}…"`);
+    const hugeId = await answerTo(socket, COMPUTE_EVENTS.subscribe, COMPUTE_EVENTS.refused, { protocolVersion: PROTOCOL_VERSION, sessionId: huge });
+    expect(hugeId).toMatchObject({ sessionId: '', code: 'bad_request' });
+    expect(hugeId.message).toMatch(/^sessionId must be at most 64 characters, got "x{40}…"$/);
+
+    const notAnObject = await answerTo(socket, COMPUTE_EVENTS.subscribe, COMPUTE_EVENTS.refused, 'subscribe me');
+    expect(notAnObject).toMatchObject({ code: 'bad_request', message: 'payload must be an object, got "subscribe me"' });
+    const badUnsubscribe = await answerTo(socket, COMPUTE_EVENTS.unsubscribe, COMPUTE_EVENTS.refused, { sessionId: null });
+    expect(badUnsubscribe).toMatchObject({ code: 'bad_request', message: 'sessionId must be a string, got null' });
+
+    // The same socket, then a fresh client, still subscribe and get results.
+    expect(socket.connected).toBe(true);
+    const joined = new Promise<JoinedMessage>((resolve) => socket.once(COMPUTE_EVENTS.joined, resolve));
+    socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId: fixture.sessionId });
+    expect(await joined).toMatchObject({ sessionId: fixture.sessionId, role: 'designer' });
+    socket.close();
+    const other = client('producer');
+    await waitForSnapshot(other, (s) => s.role === 'producer' && s.result !== null, 10_000, 'another client still served');
+    expect(other.malformed.count()).toBe(0);
+  });
+
+  it('refuses a renders subscribe of the wrong shape with bad_request naming studioId', async () => {
+    const socket = await rawSocket(fixture.members.lead.token);
+    const refused = await answerTo(socket, RENDER_EVENTS.subscribe, RENDER_EVENTS.refused, { studioId: ['not', 'an', 'id'] });
+    expect(refused).toEqual({ type: 'refused', studioId: '', code: 'bad_request', message: 'studioId must be a string, got an array of 3 items' });
+    const joined = new Promise<unknown>((resolve) => socket.once(RENDER_EVENTS.joined, resolve));
+    socket.emit(RENDER_EVENTS.subscribe, { studioId: fixture.studioId });
+    expect(await joined).toEqual({ type: 'joined', studioId: fixture.studioId });
     socket.close();
   });
 });
