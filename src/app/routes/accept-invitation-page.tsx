@@ -7,7 +7,8 @@ import { LoadingBlock } from '../../components/loading-block';
 import { Notice } from '../../components/notice';
 import { TextField } from '../../components/text-field';
 import { blamesField, withFieldLabels } from '../../lib/form-errors';
-import { PASSWORD_RULES_HINT, passwordProblem } from '../../features/account/password-rules';
+import { NewPasswordField } from '../../components/new-password-field';
+import { passwordProblem } from '../../lib/password-rules';
 import { acceptAsNewAccountInputSchema, useAcceptInvitation } from '../../features/auth/api/accept-invitation';
 import { useMe } from '../../lib/queries/get-me';
 import { useInvitation } from '../../features/auth/api/get-invitation';
@@ -151,15 +152,7 @@ function NewAccountForm({ token, invitation, signedInAs }: { token: string; invi
         error={fields.errors.displayName}
         hint="How your studio sees you."
       />
-      <TextField
-        label="Password"
-        type="password"
-        autoComplete="new-password"
-        value={form.password}
-        onChange={(event) => setForm({ ...form, password: event.target.value })}
-        error={weakness ?? fields.errors.password}
-        hint={PASSWORD_RULES_HINT}
-      />
+      <NewPasswordField label="Password" value={form.password} onValueChange={(password) => setForm({ ...form, password })} weakness={weakness} serverError={fields.errors.password} />
       {accept.isError && !blamesField(accept.error, ['displayName', 'password']) && (
         <Notice tone="error" title="You have not joined yet">
           {accept.error.message}

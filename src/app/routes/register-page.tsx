@@ -5,7 +5,8 @@ import { Button } from '../../components/button';
 import { Notice } from '../../components/notice';
 import { TextField } from '../../components/text-field';
 import { registerInputSchema, useRegister } from '../../features/auth/api/register';
-import { PASSWORD_RULES_HINT, passwordProblem } from '../../features/account/password-rules';
+import { NewPasswordField } from '../../components/new-password-field';
+import { passwordProblem } from '../../lib/password-rules';
 import { useFieldErrors } from '../../lib/use-field-errors';
 import { safeNext } from './sign-in-page';
 
@@ -32,15 +33,7 @@ export default function RegisterPage() {
       <form onSubmit={submit} noValidate className="flex flex-col gap-2">
         <TextField label="Your name" autoComplete="name" value={form.displayName} onChange={(event) => setForm({ ...form, displayName: event.target.value })} error={fields.errors.displayName} />
         <TextField label="E-mail" type="email" autoComplete="email" value={form.email} onChange={(event) => setForm({ ...form, email: event.target.value })} error={fields.errors.email} />
-        <TextField
-          label="Password"
-          type="password"
-          autoComplete="new-password"
-          value={form.password}
-          onChange={(event) => setForm({ ...form, password: event.target.value })}
-          error={weakness ?? fields.errors.password}
-          hint={PASSWORD_RULES_HINT}
-        />
+        <NewPasswordField label="Password" value={form.password} onValueChange={(password) => setForm({ ...form, password })} weakness={weakness} serverError={fields.errors.password} />
         {register.isError && Object.keys(fields.errors).length === 0 && <Notice tone="error">{register.error.message}</Notice>}
         <Button type="submit" busy={register.isPending} className="mt-2">
           Create account

@@ -3,9 +3,9 @@ import { Link, useSearchParams } from 'react-router-dom';
 import { AuthFrame } from '../../components/auth-frame';
 import { Button } from '../../components/button';
 import { Notice } from '../../components/notice';
-import { TextField } from '../../components/text-field';
 import { blamesField, withFieldLabels } from '../../lib/form-errors';
-import { PASSWORD_RULES_HINT, passwordProblem } from '../../features/account/password-rules';
+import { NewPasswordField } from '../../components/new-password-field';
+import { passwordProblem } from '../../lib/password-rules';
 import { confirmPasswordResetInputSchema, useConfirmPasswordReset } from '../../features/auth/api/confirm-password-reset';
 import { ApiRequestError } from '../../lib/api-error';
 import { useFieldErrors } from '../../lib/use-field-errors';
@@ -57,16 +57,7 @@ export default function ResetPasswordPage() {
   return (
     <AuthFrame title="Choose a new password">
       <form onSubmit={submit} noValidate className="flex flex-col gap-2">
-        <TextField
-          label="New password"
-          type="password"
-          autoComplete="new-password"
-          value={password}
-          onChange={(event) => setPassword(event.target.value)}
-          error={weakness ?? fields.errors.password}
-          hint={PASSWORD_RULES_HINT}
-          autoFocus
-        />
+        <NewPasswordField label="New password" value={password} onValueChange={setPassword} weakness={weakness} serverError={fields.errors.password} autoFocus />
         {tokenProblem && <BadLink message={tokenProblem} />}
         {confirm.isError && !tokenProblem && !blamesField(confirm.error, ['password']) && (
           <Notice tone="error" title="The password did not change">

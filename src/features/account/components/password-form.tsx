@@ -5,7 +5,8 @@ import { TextField } from '../../../components/text-field';
 import { useFieldErrors } from '../../../lib/use-field-errors';
 import { changePasswordInputSchema, useChangePassword } from '../api/change-password';
 import { blamesField, withFieldLabels } from '../../../lib/form-errors';
-import { PASSWORD_RULES_HINT, passwordProblem } from '../password-rules';
+import { NewPasswordField } from '../../../components/new-password-field';
+import { passwordProblem } from '../../../lib/password-rules';
 
 const LABELS = { currentPassword: 'Current password', newPassword: 'New password' };
 const EMPTY = { currentPassword: '', newPassword: '' };
@@ -47,14 +48,12 @@ export function PasswordForm({ email }: { email: string }) {
         onChange={(event) => setForm({ ...form, currentPassword: event.target.value })}
         error={fields.errors.currentPassword}
       />
-      <TextField
-        label="New password"
-        type="password"
-        autoComplete="new-password"
+      <NewPasswordField
+        label={LABELS.newPassword}
         value={form.newPassword}
-        onChange={(event) => setForm({ ...form, newPassword: event.target.value })}
-        error={weakness ?? fields.errors.newPassword}
-        hint={PASSWORD_RULES_HINT}
+        onValueChange={(newPassword) => setForm({ ...form, newPassword })}
+        weakness={weakness}
+        serverError={fields.errors.newPassword}
       />
       {change.isError && !blamesField(change.error, ['currentPassword', 'newPassword']) && (
         <Notice tone="error" title="The password did not change">

@@ -1,5 +1,5 @@
-import { passwordWeakness } from '../../../shared/api/password-policy';
-import { LIMITS } from '../../../shared/limits';
+import { passwordWeakness } from '../../shared/api/password-policy';
+import { LIMITS } from '../../shared/limits';
 
 /** The password rules in a sentence, shown under every field where a password is chosen. */
 export const PASSWORD_RULES_HINT = `At least ${LIMITS.minPasswordLength} characters, 5 or more different ones, not a common password and not your e-mail.`;
