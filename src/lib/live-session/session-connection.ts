@@ -2,7 +2,7 @@ import { io, type Socket } from 'socket.io-client';
 import * as authProtocol from 'y-protocols/auth';
 import { WebsocketProvider } from 'y-websocket';
 import * as Y from 'yjs';
-import { validatedPatchFromDoc } from '../../../shared/collab/patch-doc';
+import { docSharedTypes, validatedPatchFromDoc } from '../../../shared/collab/patch-doc';
 import type { FieldIssue } from '../../../shared/patch/field-issue';
 import type { Patch } from '../../../shared/patch/patch-schema';
 import type { Role } from '../../../shared/access/roles';
@@ -228,7 +228,8 @@ export class SessionConnection {
     });
     provider.awareness.setLocalState({ ...options.presence, pointerXM: null, dragging: null, role: this.snapshot.role } satisfies Presence);
     const undoManager = new Y.UndoManager(
-      ['meta', 'string', 'damping', 'pickup', 'render', 'displacement', 'velocity', 'extras'].map((key) => (key === 'displacement' || key === 'velocity' ? doc.getArray(key) : doc.getMap(key))),
+      // Every part of the document's one layout (shared/collab/doc-layout.ts), so no section's edits escape undo.
+      docSharedTypes(doc),
       { trackedOrigins: new Set([this.localOrigin]), captureTimeout: CAPTURE_TIMEOUT_MS },
     );
     this.doc = doc;

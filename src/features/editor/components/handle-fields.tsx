@@ -1,10 +1,9 @@
-import { patchDoc } from '../../../../shared/collab/patch-doc';
 import { allowedRangeM, deletePoint, movePoint } from '../../../../shared/collab/point-edits';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import { Button } from '../../../components/button';
-import type { SessionConnection } from '../../../lib/live-session/session-connection';
 import type { CanvasSelection } from '../geometry/canvas-selection';
 import { NumberField } from './number-field';
+import { commitPatchNumbers, type SessionEdits } from './commit-patch-number';
 
 const LAYER_WORDS = { displacement: 'shape', velocity: 'strike layer' } as const;
 
@@ -13,8 +12,7 @@ const LAYER_WORDS = { displacement: 'shape', velocity: 'strike layer' } as const
  * A position outside the room between the neighbours is refused with the range, never clamped
  * silently.
  */
-export function HandleFields({ connection, patch, selection, readOnly, onDeleted }: { connection: SessionConnection; patch: Patch; selection: CanvasSelection | null; readOnly: boolean; onDeleted: () => void }) {
-  const lengthMm = patch.string.lengthM * 1000;
+export function HandleFields({ connection, patch, selection, readOnly, onDeleted }: { connection: SessionEdits; patch: Patch; selection: CanvasSelection | null; readOnly: boolean; onDeleted: () => void }) {
   const frame = 'flex flex-wrap items-end gap-3 rounded-lg border border-slate-700/15 p-3 dark:border-slate-300/10';
   if (!selection) {
     return (
@@ -32,7 +30,7 @@ export function HandleFields({ connection, patch, selection, readOnly, onDeleted
           unit="mm"
           value={patch.pickup.positionM * 1000}
           disabled={readOnly}
-          onCommit={(mm) => (mm > 0 && mm < lengthMm ? (connection.edit((doc) => patchDoc(doc).pickup.set('positionM', mm / 1000)), null) : `Position must lie between the supports (0 and ${lengthMm.toFixed(1)} mm)`)}
+          onCommit={(mm) => commitPatchNumbers(connection, { 'pickup.positionM': mm / 1000 })}
         />
       </section>
     );

@@ -1,6 +1,6 @@
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import { patchDoc } from '../../../../shared/collab/patch-doc';
-import { setLengthM } from '../../../../shared/collab/point-edits';
+import type { PatchNumberField } from '../../../../shared/patch/field-rules';
 import { dampingFromT60, t60AtFrequency } from '../../../../shared/designer/damping-from-t60';
 import { tensionForPitchN } from '../../../../shared/designer/tension-for-pitch';
 import { tensionSafety } from '../../../../shared/designer/tension-safety';
@@ -8,12 +8,12 @@ import type { MaterialId } from '../../../../shared/designer/materials';
 import { fundamentalFrequencyHz } from '../../../../shared/engine/mode-frequencies';
 import { LIMITS } from '../../../../shared/limits';
 import { Notice } from '../../../components/notice';
-import type { SessionConnection } from '../../../lib/live-session/session-connection';
 import { NumberField } from './number-field';
+import { commitPatchNumbers, type SessionEdits } from './commit-patch-number';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 
 interface PanelProps {
-  connection: SessionConnection;
+  connection: SessionEdits;
   patch: Patch;
   readOnly: boolean;
 }
@@ -31,30 +31,30 @@ function Section({ title, children }: { title: string; children: React.ReactNode
 
 /** The string: length, pitch or tension (the other derived), density, stiffness; a caution near breaking. */
 export function StringPanel({ connection, patch, readOnly }: PanelProps) {
-  const set = (key: string, value: number) => connection.edit((doc) => patchDoc(doc).string.set(key, value));
+  const commit = (field: PatchNumberField, value: number) => commitPatchNumbers(connection, { [field]: value });
   const f0 = fundamentalFrequencyHz(patch.string);
   const design = (patch as { design?: { material?: MaterialId; diameterM?: number; core?: { material: MaterialId; diameterM: number } } }).design;
   const solid = design?.core ?? (design?.material && design.diameterM ? { material: design.material, diameterM: design.diameterM } : null);
   const safety = solid ? tensionSafety(patch.string.tensionN, solid.diameterM, solid.material) : null;
   return (
     <Section title="String">
-      <NumberField label="Length" unit="mm" value={patch.string.lengthM * 1000} disabled={readOnly} onCommit={(mm) => positive(mm, 'Length') ?? (connection.edit((doc, origin) => void setLengthM(doc, mm / 1000, origin)), null)} />
+      <NumberField label="Length" unit="mm" value={patch.string.lengthM * 1000} disabled={readOnly} onCommit={(mm) => commit('string.lengthM', mm / 1000)} />
       <NumberField
         label="Pitch (f0)"
         unit="Hz"
         value={f0}
         disabled={readOnly}
         hint="Sets the tension"
-        onCommit={(hz) => positive(hz, 'Pitch') ?? (set('tensionN', tensionForPitchN(patch.string.lengthM, patch.string.linearDensityKgPerM, hz)), null)}
+        onCommit={(hz) => positive(hz, 'Pitch') ?? commit('string.tensionN', tensionForPitchN(patch.string.lengthM, patch.string.linearDensityKgPerM, hz))}
       />
-      <NumberField label="Tension" unit="N" value={patch.string.tensionN} disabled={readOnly} onCommit={(n) => positive(n, 'Tension') ?? (set('tensionN', n), null)} />
-      <NumberField label="Linear density" unit="kg/m" value={patch.string.linearDensityKgPerM} disabled={readOnly} onCommit={(v) => positive(v, 'Density') ?? (set('linearDensityKgPerM', v), null)} />
+      <NumberField label="Tension" unit="N" value={patch.string.tensionN} disabled={readOnly} onCommit={(n) => commit('string.tensionN', n)} />
+      <NumberField label="Linear density" unit="kg/m" value={patch.string.linearDensityKgPerM} disabled={readOnly} onCommit={(v) => commit('string.linearDensityKgPerM', v)} />
       <NumberField
         label="Stiffness B"
         unit=""
         value={patch.string.inharmonicityB}
         disabled={readOnly}
-        onCommit={(b) => (b >= 0 && b <= LIMITS.maxInharmonicityB ? (set('inharmonicityB', b), null) : `B must be between 0 and ${LIMITS.maxInharmonicityB}`)}
+        onCommit={(b) => commit('string.inharmonicityB', b)}
       />
       {safety && safety.level !== 'ok' && (
         <div className="w-full">
@@ -76,11 +76,7 @@ export function LossesPanel({ connection, patch, readOnly }: PanelProps) {
   const apply = (lowT60S: number, highT60S: number) => {
     const result = dampingFromT60({ lowFrequencyHz: f0, lowT60S, highFrequencyHz: high, highT60S }, patch.string);
     if (!result.ok) return result.issues[0].message;
-    connection.edit((doc) => {
-      patchDoc(doc).damping.set('b1PerS', result.value.b1PerS);
-      patchDoc(doc).damping.set('b2M2PerS', result.value.b2M2PerS);
-    });
-    return null;
+    return commitPatchNumbers(connection, { 'damping.b1PerS': result.value.b1PerS, 'damping.b2M2PerS': result.value.b2M2PerS });
   };
   return (
     <Section title="Losses">
@@ -102,7 +98,7 @@ export function PickupPanel({ connection, patch, readOnly }: PanelProps) {
         unit="mm"
         value={patch.pickup.positionM * 1000}
         disabled={readOnly}
-        onCommit={(mm) => (mm > 0 && mm < patch.string.lengthM * 1000 ? (connection.edit((doc) => patchDoc(doc).pickup.set('positionM', mm / 1000)), null) : 'Position must lie between the supports')}
+        onCommit={(mm) => commitPatchNumbers(connection, { 'pickup.positionM': mm / 1000 })}
       />
       <label className="flex flex-col gap-0.5 text-xs font-semibold">
         Reads
@@ -123,16 +119,16 @@ export function PickupPanel({ connection, patch, readOnly }: PanelProps) {
 
 /** Render settings of the patch (the live preview is at most 4 s at 48 kHz). */
 export function RenderPanel({ connection, patch, readOnly }: PanelProps) {
-  const set = (key: string, value: number) => connection.edit((doc) => patchDoc(doc).render.set(key, value));
+  const commit = (field: PatchNumberField, value: number) => commitPatchNumbers(connection, { [field]: value });
   return (
     <Section title="Render">
-      <NumberField label="Duration" unit="s" value={patch.render.durationS} disabled={readOnly} onCommit={(s) => (s > 0 && s <= LIMITS.maxDurationS ? (set('durationS', s), null) : `Duration must be in (0, ${LIMITS.maxDurationS}] s`)} />
+      <NumberField label="Duration" unit="s" value={patch.render.durationS} disabled={readOnly} onCommit={(s) => commit('render.durationS', s)} />
       <label className="flex flex-col gap-0.5 text-xs font-semibold">
         Sample rate
         <select
           value={patch.render.sampleRateHz}
           disabled={readOnly}
-          onChange={(event) => set('sampleRateHz', Number(event.target.value))}
+          onChange={(event) => commit('render.sampleRateHz', Number(event.target.value))}
           className={`${COMPACT_CONTROL_CLASS} text-sm font-normal`}
         >
           {LIMITS.sampleRatesHz.map((rate) => (
@@ -142,7 +138,7 @@ export function RenderPanel({ connection, patch, readOnly }: PanelProps) {
           ))}
         </select>
       </label>
-      <NumberField label="Most modes" unit="" value={patch.render.maxModes} disabled={readOnly} onCommit={(n) => (Number.isInteger(n) && n >= 1 && n <= LIMITS.maxModes ? (set('maxModes', n), null) : `A whole number 1–${LIMITS.maxModes}`)} />
+      <NumberField label="Most modes" unit="" value={patch.render.maxModes} disabled={readOnly} onCommit={(n) => commit('render.maxModes', n)} />
     </Section>
   );
 }
