@@ -1,17 +1,16 @@
-import { useState } from 'react';
+import { useCallback, useState } from 'react';
 import { Button } from './button';
-import { cautionSeen, playUrl, stopPlayback } from '../lib/audio-output';
-import { AudioCaution } from './audio-caution';
+import { playUrl, stopPlayback } from '../lib/audio-output';
+import { useHearingCaution } from './use-hearing-caution';
 
 /**
  * Plays a preview. The first play anywhere in the app asks the listener to turn their speakers
  * down first and shows the master volume; every play goes through the master volume and a limiter.
  */
 export function AuditionButton({ url, label }: { url: string; label: string }) {
-  const [asking, setAsking] = useState(false);
   const [state, setState] = useState<'idle' | 'loading' | 'playing' | 'failed'>('idle');
 
-  const play = async () => {
+  const play = useCallback(async () => {
     setState('loading');
     try {
       const { durationS } = await playUrl(url);
@@ -20,7 +19,8 @@ export function AuditionButton({ url, label }: { url: string; label: string }) {
     } catch {
       setState('failed');
     }
-  };
+  }, [url]);
+  const { requestPlay, caution } = useHearingCaution(play);
 
   return (
     <span className="inline-flex flex-col gap-2">
@@ -33,23 +33,14 @@ export function AuditionButton({ url, label }: { url: string; label: string }) {
             if (state === 'playing') {
               void stopPlayback();
               setState('idle');
-            } else if (!cautionSeen()) setAsking(true);
-            else void play();
+            } else requestPlay();
           }}
         >
           {state === 'playing' ? '■ Stop' : '▶ Play'}
         </Button>
       </span>
       {state === 'failed' && <span className="text-sm text-ember-600 dark:text-ember-400">The preview could not be played.</span>}
-      {asking && (
-        <AudioCaution
-          onConfirm={() => {
-            setAsking(false);
-            void play();
-          }}
-          onCancel={() => setAsking(false)}
-        />
-      )}
+      {caution}
     </span>
   );
 }

@@ -2,8 +2,8 @@ import { useCallback, useEffect, useState } from 'react';
 import { Button } from '../../../components/button';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 import { SegmentedChoice } from '../../../components/segmented-choice';
-import { cautionSeen, playSamples, playUrl, stopPlayback } from '../../../lib/audio-output';
-import { AudioCaution } from '../../../components/audio-caution';
+import { playSamples, playUrl, stopPlayback } from '../../../lib/audio-output';
+import { useHearingCaution } from '../../../components/use-hearing-caution';
 import type { ComputeResult } from '../../../lib/live-session/session-connection';
 
 /** A sound to compare the session's string with: a preset's preview, by its URL. */
@@ -19,7 +19,6 @@ export interface ComparisonSound {
  * a short hearing-safety caution.
  */
 export function PreviewAudition({ result, comparisons = [] }: { result: ComputeResult | null; comparisons?: ComparisonSound[] }) {
-  const [asking, setAsking] = useState(false);
   const [playing, setPlaying] = useState(false);
   const [loop, setLoop] = useState(false);
   const [info, setInfo] = useState<string | null>(null);
@@ -42,14 +41,14 @@ export function PreviewAudition({ result, comparisons = [] }: { result: ComputeR
     setInfo(`${comparison ? 'A: this string · ' : ''}${played.bufferLength} samples at ${played.bufferSampleRateHz} Hz · audio ${played.contextState}`);
     if (!loop) setTimeout(() => setPlaying(false), played.durationS * 1000);
   }, [result, loop, playingB, comparison]);
+  const { requestPlay, caution } = useHearingCaution(play);
 
   const toggle = useCallback(() => {
     if (playing) {
       void stopPlayback();
       setPlaying(false);
-    } else if (!cautionSeen()) setAsking(true);
-    else void play();
-  }, [playing, play]);
+    } else requestPlay();
+  }, [playing, requestPlay]);
 
   // Switching sides while something plays plays the other side at once, as an A/B should.
   const switchSide = useCallback(
@@ -125,15 +124,7 @@ export function PreviewAudition({ result, comparisons = [] }: { result: ComputeR
           {info}
         </span>
       )}
-      {asking && (
-        <AudioCaution
-          onConfirm={() => {
-            setAsking(false);
-            void play();
-          }}
-          onCancel={() => setAsking(false)}
-        />
-      )}
+      {caution}
     </section>
   );
 }
