@@ -81,7 +81,7 @@ describe('register with a taken address', () => {
     const before = await rowCount(server.dataSource, 'users');
     const refused = await request(server.app).post('/api/auth/register').send({ email: 'LIO@saltglass.example', password: TEST_PASSWORD, displayName: 'Again' });
     expect(refused.status).toBe(409);
-    expect(refused.body.error).toEqual({ code: 'conflict', field: 'email', message: REGISTER_REFUSED });
+    expect(refused.body.error).toEqual({ code: 'conflict', field: 'email', message: REGISTER_REFUSED, issues: [{ field: 'email', problem: REGISTER_REFUSED, got: null, message: REGISTER_REFUSED }] });
     expect(refused.body.error.message).not.toMatch(/exist/i);
     expect(await rowCount(server.dataSource, 'users')).toBe(before);
   });

@@ -228,7 +228,12 @@ describe('PATCH /api/sessions/:id', () => {
     const bad = testPatch({ string: { lengthM: 0.65, tensionN: -5, linearDensityKgPerM: 6e-4, inharmonicityB: 0 } });
     const response = await lead().patch(`/api/sessions/${session.id}`).send({ name: 'Should not stick', patch: bad });
     expectStatus(response, 422);
-    expect(response.body.error).toEqual({ code: 'invalid_patch', field: 'patch.string.tensionN', message: 'patch.string.tensionN must be > 0, got -5' });
+    expect(response.body.error).toEqual({
+      code: 'invalid_patch',
+      field: 'patch.string.tensionN',
+      message: 'patch.string.tensionN must be > 0, got -5',
+      issues: [{ field: 'patch.string.tensionN', problem: 'must be > 0', got: '-5', message: 'patch.string.tensionN must be > 0, got -5' }],
+    });
     expect(await getSession(session.id)).toEqual(before);
   });
 
