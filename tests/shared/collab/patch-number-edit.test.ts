@@ -3,6 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { docSharedTypes } from '../../../shared/collab/doc-layout';
 import { patchDoc, validatedPatchFromDoc, writePatchToDoc } from '../../../shared/collab/patch-doc';
 import { setPatchNumber, setPatchNumbers } from '../../../shared/collab/patch-number-edit';
+import { setPickupOutput } from '../../../shared/collab/pickup-output-edit';
+import type { PickupOutput } from '../../../shared/patch/patch-schema';
 import { testPatch, validPatch } from '../../support/patches';
 
 function freshDoc(): { doc: Y.Doc; updates: () => number } {
@@ -54,5 +56,17 @@ describe('typed number edits of the shared document', () => {
     expect(result.value.damping).toEqual({ b1PerS: 0.25, b2M2PerS: 2e-4 });
     expect(result.value.excitation.displacementM[1][0]).toBeCloseTo(0.34, 12);
     expect(result.value.pickup.positionM).toBeCloseTo(0.2, 12);
+  });
+});
+
+describe('what the pickup reads', () => {
+  it('is set from the schema\'s list, and anything else is refused with its message and writes nothing', () => {
+    const { doc, updates } = freshDoc();
+    expect(setPickupOutput(doc, 'velocity')).toEqual({ ok: true });
+    expect(updates()).toBe(1);
+    const refused = setPickupOutput(doc, 'pressure' as PickupOutput);
+    expect(refused).toEqual({ ok: false, reason: 'pickup.output must be one of displacement, velocity, force, got "pressure"' });
+    expect(updates()).toBe(1);
+    expect(patchDoc(doc).pickup.get('output')).toBe('velocity');
   });
 });

@@ -1,5 +1,5 @@
-import type { Patch } from '../../../../shared/patch/patch-schema';
-import { patchDoc } from '../../../../shared/collab/patch-doc';
+import type { Patch, PickupOutput } from '../../../../shared/patch/patch-schema';
+import { setPickupOutput } from '../../../../shared/collab/pickup-output-edit';
 import type { PatchNumberField } from '../../../../shared/patch/field-rules';
 import { dampingFromT60, t60AtFrequency } from '../../../../shared/designer/damping-from-t60';
 import { tensionForPitchN } from '../../../../shared/designer/tension-for-pitch';
@@ -105,7 +105,7 @@ export function PickupPanel({ connection, patch, readOnly }: PanelProps) {
         <select
           value={patch.pickup.output}
           disabled={readOnly}
-          onChange={(event) => connection.edit((doc) => patchDoc(doc).pickup.set('output', event.target.value))}
+          onChange={(event) => connection.edit((doc, origin) => void setPickupOutput(doc, event.target.value as PickupOutput, origin))}
           className={`${COMPACT_CONTROL_CLASS} text-sm font-normal`}
         >
           <option value="displacement">displacement</option>
