@@ -13,22 +13,19 @@ import type { WireBinary } from './socket-events';
  * field issues whose messages name the field, e.g. `sessionId must be a string, got 42`.
  */
 
-const id = (what: string) =>
-  z
-    .string(`must be a string (the ${what}'s id)`)
-    .min(1, 'is required')
-    .max(LIMITS.maxSocketIdLength, `must be at most ${LIMITS.maxSocketIdLength} characters`);
+/** A session's or studio's id (a wrong type reads "must be a string", from issueFromZod). */
+const id = z.string().min(1, 'is required').max(LIMITS.maxSocketIdLength, `must be at most ${LIMITS.maxSocketIdLength} characters`);
 
 // ---- client → server -------------------------------------------------------------------------
 
 export const subscribeRequestSchema = z.strictObject({
   protocolVersion: z.number('must be a number').int('must be a whole number'),
-  sessionId: id('session'),
+  sessionId: id,
 });
 
-export const unsubscribeRequestSchema = z.strictObject({ sessionId: id('session') });
+export const unsubscribeRequestSchema = z.strictObject({ sessionId: id });
 
-export const renderSubscribeRequestSchema = z.strictObject({ studioId: id('studio') });
+export const renderSubscribeRequestSchema = z.strictObject({ studioId: id });
 
 // ---- server → client -------------------------------------------------------------------------
 
