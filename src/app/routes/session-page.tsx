@@ -1,7 +1,7 @@
 import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { Link, useLocation, useParams } from 'react-router-dom';
-import { patchDoc, writePatchToDoc } from '../../../shared/collab/patch-doc';
+import { writePatchToDoc } from '../../../shared/collab/patch-doc';
 import { presenceColour } from '../../../shared/collab/presence-colour';
 import { deletePoint, movePoint } from '../../../shared/collab/point-edits';
 import { Button } from '../../components/button';
@@ -26,6 +26,7 @@ import { useContainerWidth } from '../../features/editor/results/use-container-w
 import { useSettledValue } from '../../features/editor/results/use-settled-value';
 import { usePresets } from '../../features/presets/api/get-presets';
 import { useSession } from '../../lib/queries/get-session';
+import { addStrikeLayer, movePickup } from '../../../shared/collab/pickup-position-edit';
 
 /**
  * The page's parts, memoised: a compute result (about five a second while people drag) redraws the
@@ -130,9 +131,7 @@ export default function SessionPage() {
     if (selected.layer === 'pickup') {
       if (alongM === undefined) return;
       event.preventDefault();
-      const lengthM = patch.string.lengthM;
-      const next = Math.min(lengthM * 0.999, Math.max(lengthM * 0.001, patch.pickup.positionM + (alongM * fine) / 1000));
-      return void connection.edit((doc) => patchDoc(doc).pickup.set('positionM', next));
+      return void connection.edit((doc, origin) => movePickup(doc, patch.pickup.positionM + (alongM * fine) / 1000, origin));
     }
     const { layer, index } = selected;
     if (event.key === 'Delete' || event.key === 'Backspace') {
@@ -219,7 +218,7 @@ export default function SessionPage() {
               </label>
             </>
           ) : (
-            <Button variant="secondary" disabledReason={readOnly ? 'read-only' : undefined} onClick={() => connection.edit((doc) => patchDoc(doc).meta.set('hasVelocity', true))}>
+            <Button variant="secondary" disabledReason={readOnly ? 'read-only' : undefined} onClick={() => connection.edit((doc, origin) => addStrikeLayer(doc, origin))}>
               Add a strike layer
             </Button>
           )}

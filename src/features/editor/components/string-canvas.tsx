@@ -2,7 +2,6 @@ import { useMemo, useRef } from 'react';
 import type Konva from 'konva';
 import { Circle, Group, Layer, Line, Rect, Stage, Text } from 'react-konva';
 import { deletePoint, insertPoint, movePoint, replaceLayerPoints } from '../../../../shared/collab/point-edits';
-import { patchDoc } from '../../../../shared/collab/patch-doc';
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import type { Presence, SessionConnection } from '../../../lib/live-session/session-connection';
 import { createCanvasScale } from '../geometry/canvas-scale';
@@ -10,6 +9,7 @@ import { asPixels, type PixelPoint } from '../geometry/canvas-units';
 import { sameSelection, type CanvasSelection } from '../geometry/canvas-selection';
 import { polylineFromStroke } from '../geometry/freehand';
 import { niceTicks } from '../geometry/nice-ticks';
+import { movePickup } from '../../../../shared/collab/pickup-position-edit';
 
 export interface StringCanvasProps {
   connection: SessionConnection;
@@ -236,7 +236,7 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
             connection.beginGesture();
             connection.setPresence({ dragging: { layer: 'pickup', index: 0 } });
           }}
-          onDragMove={(event) => edit((doc) => patchDoc(doc).pickup.set('positionM', Math.min(lengthM * 0.999, Math.max(lengthM * 0.001, scale.pxToX(event.target.x())))))}
+          onDragMove={(event) => edit((doc, origin) => movePickup(doc, scale.pxToX(event.target.x()), origin))}
           onDragEnd={() => {
             connection.endGesture();
             connection.setPresence({ dragging: null });
