@@ -17,9 +17,10 @@ import { SessionUpdateLog1764630000000 } from './migrations/1764630000000-sessio
 import { Renders1764640000000 } from './migrations/1764640000000-renders';
 import { RenderLevellingNote1764660000000 } from './migrations/1764660000000-render-levelling-note';
 import { RevokedTokens1764650000000 } from './migrations/1764650000000-revoked-tokens';
+import { SessionSourcePreset1764670000000 } from './migrations/1764670000000-session-source-preset';
 
 export const ENTITIES = [User, Studio, Membership, Invitation, PasswordReset, Session, Preset, SessionUpdate, Render, RevokedToken];
-export const MIGRATIONS = [InitialSchema1764626400000, SessionUpdateLog1764630000000, Renders1764640000000, RevokedTokens1764650000000, RenderLevellingNote1764660000000];
+export const MIGRATIONS = [InitialSchema1764626400000, SessionUpdateLog1764630000000, Renders1764640000000, RevokedTokens1764650000000, RenderLevellingNote1764660000000, SessionSourcePreset1764670000000];
 
 /**
  * The SQLite database through TypeORM (better-sqlite3): WAL journal, foreign keys on, schema from

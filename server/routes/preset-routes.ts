@@ -14,6 +14,8 @@ import { ApiError, invalidFields, notFound } from '../http/api-error';
 import { parseInput, parsePatch } from '../http/parse-input';
 import { PreviewBusyError } from '../renders/preset-previews';
 import { RenderService } from '../renders/render-service';
+import { liveSessionPatch } from './live-session-patch';
+import { presetVersionAfter } from './preset-version';
 
 function presetView(preset: Preset, authorName: string | null, withPatch: boolean) {
   return {
@@ -107,12 +109,16 @@ export function presetRoutes(context: AppContext): Router {
     if (body.sessionId) {
       const session = await context.dataSource.getRepository(Session).findOneBy({ id: body.sessionId, studioId: membership.studioId });
       if (!session) throw notFound('Session');
-      patch = parsePatch(session.patch);
+      // What the people in the session hear now (the live document), not the last stored copy.
+      patch = liveSessionPatch(context, session);
       sourceSessionId = session.id;
     } else {
       patch = withoutPresetFields(parsePatch(body.patch)).patch;
     }
-    response.status(201).json({ preset: await savePreset(membership.studioId, user.id, { ...body, patch: { ...patch, name: body.name }, sourceSessionId }) });
+    const preset = await savePreset(membership.studioId, user.id, { ...body, patch: { ...patch, name: body.name }, sourceSessionId });
+    // Saved from a session: the session now comes from this preset, so "Update preset" writes to it ("last edited" stays).
+    if (sourceSessionId) await context.dataSource.getRepository(Session).createQueryBuilder().update().set({ sourcePresetId: preset.id, updatedAt: () => '"updatedAt"' }).where('id = :id', { id: sourceSessionId }).execute();
+    response.status(201).json({ preset });
   });
 
   router.post('/studios/:studioId/presets/upload', async (request, response) => {
@@ -178,7 +184,7 @@ export function presetRoutes(context: AppContext): Router {
     if (body.description !== undefined) preset.description = body.description;
     const nextPatch = { ...(patch ?? preset.patch), name };
     // The version counts changes of the sound, not of the label: compare without the name.
-    if (patch && JSON.stringify({ ...patch, name: '' }) !== JSON.stringify({ ...preset.patch, name: '' })) preset.version += 1;
+    if (patch) preset.version = presetVersionAfter(preset.version, preset.patch, patch);
     preset.patch = nextPatch;
     await presets().save(preset);
     const updated = await presets().findOneByOrFail({ id: preset.id });
@@ -188,7 +194,10 @@ export function presetRoutes(context: AppContext): Router {
   router.delete('/presets/:id', async (request, response) => {
     const { preset, membership } = await presetFor(currentUser(request).id, request.params.id);
     requirePermission(membership, 'managePresets');
-    await presets().delete({ id: preset.id });
+    await context.dataSource.transaction(async (manager) => {
+      await manager.createQueryBuilder().update(Session).set({ sourcePresetId: null, updatedAt: () => '"updatedAt"' }).where('sourcePresetId = :id', { id: preset.id }).execute();
+      await manager.delete(Preset, { id: preset.id });
+    });
     response.status(204).end();
   });
 

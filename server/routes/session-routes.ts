@@ -9,9 +9,13 @@ import { currentUser, requireUser } from '../auth/authenticate';
 import { Preset } from '../db/entities/preset';
 import { Session } from '../db/entities/session';
 import { User } from '../db/entities/user';
-import { notFound } from '../http/api-error';
+import { conflict, notFound } from '../http/api-error';
 import { parseInput, parsePatch } from '../http/parse-input';
 import { replaceSessionPatch } from '../collab/replace-session-patch';
+import { LIMITS } from '../../shared/limits';
+import { presetLoadedMessage } from '../../shared/protocol/live-access';
+import { liveSessionPatch } from './live-session-patch';
+import { presetVersionAfter } from './preset-version';
 
 function sessionSummary(session: Session, names: Map<string, string>) {
   return {
@@ -40,7 +44,21 @@ export function sessionRoutes(context: AppContext): Router {
 
   async function view(session: Session, withPatch: boolean) {
     const names = await displayNames([session.createdById, session.updatedById]);
-    return { ...sessionSummary(session, names), ...(withPatch ? { patch: session.patch } : {}) };
+    const source = session.sourcePresetId ? await context.dataSource.getRepository(Preset).findOne({ where: { id: session.sourcePresetId, studioId: session.studioId }, select: { id: true, name: true, version: true } }) : null;
+    return {
+      ...sessionSummary(session, names),
+      ...(withPatch ? { patch: session.patch, sourcePreset: source ? { id: source.id, name: source.name, version: source.version } : null } : {}),
+    };
+  }
+
+  /** Links a session to a preset without counting as an edit of the session ("last edited" stays). */
+  async function linkPreset(session: Session, presetId: string | null) {
+    await sessions().createQueryBuilder().update().set({ sourcePresetId: presetId, updatedAt: () => '"updatedAt"' }).where('id = :id', { id: session.id }).execute();
+  }
+
+  /** Tells everyone in the session (compute channel, SessionNotice) that a preset was loaded into it. */
+  function announcePresetLoaded(session: Session, preset: Preset, byName: string) {
+    context.collab?.emit('notice', { kind: 'preset-loaded', sessionId: session.id, presetId: preset.id, presetName: preset.name, byName, message: presetLoadedMessage(byName, preset.name) });
   }
 
   /** A session the caller's studio owns; any other id answers 404. */
@@ -86,13 +104,68 @@ export function sessionRoutes(context: AppContext): Router {
     const membership = await requireAccess(context.dataSource, user.id, request.params.studioId, 'editSessions');
     const body = parseInput(createSessionBody, request.body);
     let patch: Patch;
-    if (body.presetId) patch = (await presetOfStudio(membership.studioId, body.presetId)).patch;
-    else if (body.patch !== undefined) patch = parsePatch(body.patch);
+    let sourcePresetId: string | null = null;
+    if (body.presetId) {
+      const preset = await presetOfStudio(membership.studioId, body.presetId);
+      patch = structuredClone(preset.patch);
+      sourcePresetId = preset.id;
+    } else if (body.patch !== undefined) patch = parsePatch(body.patch);
     else patch = defaultPatch(body.name);
     const session = await sessions().save(
-      sessions().create({ studioId: membership.studioId, name: body.name, patch, createdById: user.id, updatedById: user.id, archived: false, docState: null }),
+      sessions().create({ studioId: membership.studioId, name: body.name, patch, createdById: user.id, updatedById: user.id, archived: false, docState: null, sourcePresetId }),
     );
     response.status(201).json({ session: await view(session, true) });
+  });
+
+  // A copy of the session as its people see it now: same patch, same source preset, "… (copy)".
+  router.post('/sessions/:id/duplicate', async (request, response) => {
+    const user = currentUser(request);
+    const { session, membership } = await sessionFor(user.id, request.params.id);
+    requirePermission(membership, 'editSessions');
+    const suffix = ' (copy)';
+    const name = `${session.name.slice(0, LIMITS.maxLabelLength - suffix.length)}${suffix}`;
+    const copy = await sessions().save(
+      sessions().create({
+        studioId: session.studioId,
+        name,
+        patch: liveSessionPatch(context, session),
+        createdById: user.id,
+        updatedById: user.id,
+        archived: false,
+        docState: null,
+        sourcePresetId: session.sourcePresetId,
+      }),
+    );
+    response.status(201).json({ session: await view(copy, true) });
+  });
+
+  // Writes the session's current patch to the preset it came from; the version rises only when the patch changed.
+  router.post('/sessions/:id/update-preset', async (request, response) => {
+    const user = currentUser(request);
+    const { session, membership } = await sessionFor(user.id, request.params.id);
+    requirePermission(membership, 'managePresets');
+    const presets = context.dataSource.getRepository(Preset);
+    const preset = session.sourcePresetId ? await presets.findOneBy({ id: session.sourcePresetId, studioId: session.studioId }) : null;
+    if (!preset) throw conflict('This session did not come from a preset in the library: save it as a new preset instead');
+    const patch = { ...liveSessionPatch(context, session), name: preset.name };
+    const version = presetVersionAfter(preset.version, preset.patch, patch);
+    const changed = version !== preset.version;
+    if (changed) await presets.save(Object.assign(preset, { patch, version }));
+    const updated = await presets.findOneByOrFail({ id: preset.id });
+    response.json({ preset: { id: updated.id, name: updated.name, version: updated.version, updatedAt: updated.updatedAt.toISOString() }, changed });
+  });
+
+  // After a person loaded a preset into the open session (one undoable edit of the live document,
+  // made in their browser): the session remembers the preset and everyone present is told.
+  router.post('/sessions/:id/preset-loaded', async (request, response) => {
+    const user = currentUser(request);
+    const { session, membership } = await sessionFor(user.id, request.params.id);
+    requirePermission(membership, 'editSessions');
+    const { presetId } = parseInput(loadPresetBody, request.body);
+    const preset = await presetOfStudio(session.studioId, presetId);
+    await linkPreset(session, preset.id);
+    announcePresetLoaded(session, preset, user.displayName);
+    response.json({ session: await view(await sessions().findOneByOrFail({ id: session.id }), true) });
   });
 
   router.get('/sessions/:id', async (request, response) => {
@@ -134,6 +207,8 @@ export function sessionRoutes(context: AppContext): Router {
     const preset = await presetOfStudio(session.studioId, presetId);
     // The session gets its own copy: later edits to either never reach the other.
     await replaceSessionPatch(context, session.id, structuredClone(preset.patch), user.id);
+    await sessions().update({ id: session.id }, { sourcePresetId: preset.id });
+    announcePresetLoaded(session, preset, user.displayName);
     response.json({ session: await view(await sessions().findOneByOrFail({ id: session.id }), true) });
   });
 

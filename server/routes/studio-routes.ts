@@ -6,6 +6,7 @@ import { currentUser, requireUser } from '../auth/authenticate';
 import { Membership } from '../db/entities/membership';
 import { Studio } from '../db/entities/studio';
 import { parseInput } from '../http/parse-input';
+import { addFactoryPresets } from '../seed/demo-seed';
 import { studiosOf } from './membership-queries';
 import { uniqueStudioSlug } from './studio-slug';
 
@@ -28,6 +29,8 @@ export function studioRoutes(context: AppContext): Router {
     const studio = await context.dataSource.transaction(async (manager) => {
       const created = await manager.save(Studio, manager.create(Studio, { name, slug: await uniqueStudioSlug(manager, name) }));
       await manager.save(Membership, manager.create(Membership, { userId: user.id, studioId: created.id, role: 'lead' }));
+      // A new studio starts with the factory presets, authored by the lead who created it.
+      await addFactoryPresets(manager, created.id, user.id);
       return created;
     });
     response.status(201).json({ studio: studioView(studio, 'lead') });

@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import type { Role } from '../../shared/access/roles';
 import { validatePatch } from '../../shared/patch/validate-patch';
 import type { Patch } from '../../shared/patch/patch-schema';
@@ -51,6 +51,24 @@ export function readFactoryPresets(dir = PRESETS_DIR): FactoryPreset[] {
     });
 }
 
+let factoryPresetsRead: FactoryPreset[] | null = null;
+
+/**
+ * Adds the factory presets (presets/*.json, read and validated once per process) to a studio,
+ * inside the caller's transaction: the demo studio and every new studio start with them.
+ */
+export async function addFactoryPresets(manager: EntityManager, studioId: string, createdById: string | null, presets: FactoryPreset[] = (factoryPresetsRead ??= readFactoryPresets())): Promise<Map<string, Preset>> {
+  const byFile = new Map<string, Preset>();
+  for (const preset of presets) {
+    const saved = await manager.save(
+      Preset,
+      manager.create(Preset, { studioId, name: preset.patch.name, tags: [...preset.tags], description: preset.description, patch: structuredClone(preset.patch), version: 1, createdById }),
+    );
+    byFile.set(preset.file, saved);
+  }
+  return byFile;
+}
+
 /**
  * Seeds the demo on a database that has no users yet: the studio, one account per role, the
  * factory presets, and two sessions started from presets. Returns false (and changes nothing)
@@ -70,20 +88,17 @@ export async function seedDemo(dataSource: DataSource, passwordHashCost: number)
       users.push(user);
     }
     const [lead, designer] = users;
-    for (const preset of presets) {
-      await manager.save(
-        Preset,
-        manager.create(Preset, { studioId: studio.id, name: preset.patch.name, tags: preset.tags, description: preset.description, patch: preset.patch, version: 1, createdById: lead.id }),
-      );
-    }
-    const byFile = new Map(presets.map((preset) => [preset.file, preset.patch]));
+    const saved = await addFactoryPresets(manager, studio.id, lead.id, presets);
     const sessions: Array<[string, string, User]> = [
       ['Lighthouse stair climb', 'lantern-room-harp.json', designer],
       ['Storm-surge chase pulse', 'breakwater-bass.json', lead],
     ];
     for (const [name, file, author] of sessions) {
-      const patch = byFile.get(file) ?? presets[0].patch;
-      await manager.save(Session, manager.create(Session, { studioId: studio.id, name, patch: { ...patch, name }, createdById: author.id, updatedById: author.id, archived: false, docState: null }));
+      const preset = saved.get(file) ?? [...saved.values()][0];
+      await manager.save(
+        Session,
+        manager.create(Session, { studioId: studio.id, name, patch: { ...structuredClone(preset.patch), name }, createdById: author.id, updatedById: author.id, archived: false, docState: null, sourcePresetId: preset.id }),
+      );
     }
   });
   return true;

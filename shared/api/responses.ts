@@ -71,6 +71,15 @@ export interface SessionSummary {
 
 export interface SessionDetail extends SessionSummary {
   patch: Patch;
+  /** The preset the session was started from, loaded from or saved as, while it exists in the studio. */
+  sourcePreset: SourcePresetRef | null;
+}
+
+/** A preset a session came from: what "Update preset" writes to. */
+export interface SourcePresetRef {
+  id: string;
+  name: string;
+  version: number;
 }
 
 export interface PresetSummary {

@@ -33,8 +33,15 @@ export type SessionNotice =
   | { kind: 'not-saving'; sessionId: string; message: string }
   /** Edits are being stored again. */
   | { kind: 'saving'; sessionId: string }
+  /** Someone loaded a preset into the session: its string, losses, pickup and render now come from that preset. */
+  | { kind: 'preset-loaded'; sessionId: string; presetId: string; presetName: string; byName: string; message: string }
   /** This connection no longer reaches the session: the socket leaves it (and, for a void token, disconnects). */
   | { kind: 'access-ended'; sessionId: string; reason: LiveAccessEndReason; message: string };
+
+/** What everyone in a session reads when someone loads a preset into it. */
+export function presetLoadedMessage(byName: string, presetName: string): string {
+  return `${byName} loaded the preset “${presetName}” into this session`;
+}
 
 /** Why someone's live access to a session ended. */
 export type LiveAccessEndReason = 'removed' | 'signed-out' | 'account-deleted' | 'session-deleted';

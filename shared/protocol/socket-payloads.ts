@@ -109,6 +109,7 @@ export const sessionNoticeSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('writable'), sessionId: z.string(), message: z.string() }),
   z.object({ kind: z.literal('not-saving'), sessionId: z.string(), message: z.string() }),
   z.object({ kind: z.literal('saving'), sessionId: z.string() }),
+  z.object({ kind: z.literal('preset-loaded'), sessionId: z.string(), presetId: z.string(), presetName: z.string(), byName: z.string(), message: z.string() }),
   z.object({ kind: z.literal('access-ended'), sessionId: z.string(), reason: endReason, message: z.string() }),
 ]);
 

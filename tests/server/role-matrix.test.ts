@@ -305,6 +305,53 @@ const rows: Row[] = [
       expect(session.body.session.patch).toEqual(preset.body.preset.patch);
     },
   },
+  {
+    name: 'POST /api/sessions/:id/duplicate',
+    method: 'post',
+    path: (ids) => `/api/sessions/${ids.sessionId}/duplicate`,
+    allowed: EDITORS,
+    action: 'editSessions',
+    status: 201,
+    fresh: async (studio) => ({ sessionId: await freshSession(studio) }),
+    touches: ['sessions'],
+    effect: async (response, ids, studio) => {
+      const original = await readAsLead(studio, `/api/sessions/${ids.sessionId}`);
+      expect(response.body.session.name).toBe(`${original.body.session.name} (copy)`);
+      expect(response.body.session.patch).toEqual(original.body.session.patch);
+    },
+  },
+  {
+    name: 'POST /api/sessions/:id/preset-loaded',
+    method: 'post',
+    path: (ids) => `/api/sessions/${ids.sessionId}/preset-loaded`,
+    body: (ids) => ({ presetId: ids.presetId }),
+    allowed: EDITORS,
+    action: 'editSessions',
+    status: 200,
+    fresh: async (studio) => ({ sessionId: await freshSession(studio) }),
+    touches: ['sessions'],
+    effect: async (response, ids) => expect(response.body.session.sourcePreset.id).toBe(ids.presetId),
+  },
+  {
+    name: 'POST /api/sessions/:id/update-preset',
+    method: 'post',
+    path: (ids) => `/api/sessions/${ids.sessionId}/update-preset`,
+    allowed: LEADS,
+    action: 'managePresets',
+    status: 200,
+    fresh: async (studio) => {
+      const presetId = await freshPreset(studio);
+      const response = await lead(studio).post(`/api/studios/${studio.ids.studioId}/sessions`).send({ name: unique('From a preset'), presetId });
+      expectStatus(response, 201);
+      return { presetId, sessionId: response.body.session.id };
+    },
+    touches: ['sessions', 'presets'],
+    effect: async (response, ids) => {
+      expect(response.body.preset.id).toBe(ids.presetId);
+      // Nothing was edited since the session started from the preset: same sound, same version.
+      expect(response.body).toMatchObject({ changed: false, preset: { version: 1 } });
+    },
+  },
 
   // delete sessions: lead only
   {

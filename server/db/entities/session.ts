@@ -30,6 +30,10 @@ export class Session {
   @Column({ type: 'boolean', default: false })
   archived!: boolean;
 
+  /** The preset this session was started from, loaded from or saved as; "Update preset" writes to it. Deleting the preset clears it (no foreign key, so the migration can be undone). */
+  @Column({ type: 'varchar', nullable: true })
+  sourcePresetId!: string | null;
+
   @CreateDateColumn({ type: 'datetime' })
   createdAt!: Date;
 

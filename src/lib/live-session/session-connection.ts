@@ -306,6 +306,8 @@ export class SessionConnection {
         return this.update({ notice: { tone: 'caution', message: notice.message } });
       case 'saving':
         return this.update({ notice: null });
+      case 'preset-loaded':
+        return this.update({ notice: { tone: 'info', message: notice.message } });
       case 'access-ended':
         return this.endAccess({ code: notice.reason === 'session-deleted' ? LIVE_CLOSE_CODES.sessionDeleted : LIVE_CLOSE_CODES.accessRevoked, reason: notice.reason, message: notice.message });
     }
