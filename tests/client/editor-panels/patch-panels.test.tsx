@@ -3,7 +3,9 @@ import { cleanup, fireEvent, render, screen, within } from '@testing-library/rea
 import * as Y from 'yjs';
 import { afterEach, describe, expect, it } from 'vitest';
 import { patchDoc, validatedPatchFromDoc, writePatchToDoc } from '../../../shared/collab/patch-doc';
+import { FIELD_LABELS } from '../../../shared/patch/field-labels';
 import { fieldRule } from '../../../shared/patch/field-rules';
+import { plainFieldMessage } from '../../../shared/patch/plain-messages';
 import type { Patch } from '../../../shared/patch/patch-schema';
 import type { SessionEdits } from '../../../src/features/editor/components/commit-patch-number';
 import { HandleFields } from '../../../src/features/editor/components/handle-fields';
@@ -46,8 +48,8 @@ describe('editor panels validate typed numbers with the patch schema', () => {
     ['Render', 'Most modes', '2.5', 'render.maxModes', 2.5],
     ['String', 'Stiffness B', '2', 'string.inharmonicityB', 2],
     ['String', 'Tension', '-5', 'string.tensionN', -5],
-    ['String', 'Length', '0', 'string.lengthM', 0],
-  ] as const)('%s › %s: typing %s shows the schema\'s message and writes nothing', (section, label, text, field, value) => {
+    ['String', 'Scale length', '0', 'string.lengthM', 0],
+  ] as const)('%s › %s: typing %s shows the schema\'s bound in plain words, once, and writes nothing', (section, label, text, field, value) => {
     const live = liveDocument();
     const before = JSON.stringify(live.doc.toJSON());
     render(
@@ -57,9 +59,10 @@ describe('editor panels validate typed numbers with the patch schema', () => {
       </>,
     );
     typeInto(section, label, text);
-    const message = fieldRule(field).message(value);
-    expect(message).toMatch(new RegExp(`^${field.replace('.', '\\.')} `));
-    expect(screen.getByRole('alert').textContent).toBe(message);
+    expect(fieldRule(field).message(value)).not.toBeNull();
+    const message = plainFieldMessage(field, value);
+    expect(message).toMatch(new RegExp(`^${FIELD_LABELS[field].label} must be `));
+    expect(screen.getAllByRole('alert').map((alert) => alert.textContent)).toEqual([message]);
     expect(live.updates()).toBe(0);
     expect(JSON.stringify(live.doc.toJSON())).toBe(before);
   });
@@ -73,7 +76,7 @@ describe('editor panels validate typed numbers with the patch schema', () => {
       </>,
     );
     typeInto('Pickup', 'Position', '700');
-    expect(screen.getByRole('alert').textContent).toBe('pickup.positionM must be < string.lengthM (0.65); the pickup sits between the supports, got 0.7');
+    expect(screen.getByRole('alert').textContent).toBe('Pickup position must be inside the string, less than its length (650 mm)');
     typeInto('Selected handle', 'Position', '0');
     expect(screen.getAllByRole('alert').map((alert) => alert.textContent)).toContain('pickup.positionM must be > 0, got 0');
     expect(live.updates()).toBe(0);

@@ -2,14 +2,14 @@ import type { Patch, PickupOutput } from '../../../../shared/patch/patch-schema'
 import { setPickupOutput } from '../../../../shared/collab/pickup-output-edit';
 import type { PatchNumberField } from '../../../../shared/patch/field-rules';
 import { dampingFromT60, t60AtFrequency } from '../../../../shared/designer/damping-from-t60';
-import { tensionForPitchN } from '../../../../shared/designer/tension-for-pitch';
-import { tensionSafety } from '../../../../shared/designer/tension-safety';
-import type { MaterialId } from '../../../../shared/designer/materials';
+import { plainIssueMessage } from '../../../../shared/patch/plain-messages';
 import { fundamentalFrequencyHz } from '../../../../shared/engine/mode-frequencies';
 import { LIMITS } from '../../../../shared/limits';
-import { Notice } from '../../../components/notice';
 import { NumberField } from './number-field';
-import { commitPatchNumbers, type SessionEdits } from './commit-patch-number';
+import type { SessionEdits } from './commit-patch-number';
+import { commitPlainNumbers } from './plain-commit';
+
+export { StringPanel } from './string-panel';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 
 interface PanelProps {
@@ -18,52 +18,12 @@ interface PanelProps {
   readOnly: boolean;
 }
 
-const positive = (value: number, what: string) => (value > 0 ? null : `${what} must be > 0`);
-
 function Section({ title, children }: { title: string; children: React.ReactNode }) {
   return (
     <section aria-label={title} className="rounded-lg border border-slate-700/15 p-3 dark:border-slate-300/10">
       <h2 className="mb-2 text-sm font-semibold">{title}</h2>
       <div className="flex flex-wrap gap-3">{children}</div>
     </section>
-  );
-}
-
-/** The string: length, pitch or tension (the other derived), density, stiffness; a caution near breaking. */
-export function StringPanel({ connection, patch, readOnly }: PanelProps) {
-  const commit = (field: PatchNumberField, value: number) => commitPatchNumbers(connection, { [field]: value });
-  const f0 = fundamentalFrequencyHz(patch.string);
-  const design = (patch as { design?: { material?: MaterialId; diameterM?: number; core?: { material: MaterialId; diameterM: number } } }).design;
-  const solid = design?.core ?? (design?.material && design.diameterM ? { material: design.material, diameterM: design.diameterM } : null);
-  const safety = solid ? tensionSafety(patch.string.tensionN, solid.diameterM, solid.material) : null;
-  return (
-    <Section title="String">
-      <NumberField label="Length" unit="mm" value={patch.string.lengthM * 1000} disabled={readOnly} onCommit={(mm) => commit('string.lengthM', mm / 1000)} />
-      <NumberField
-        label="Pitch (f0)"
-        unit="Hz"
-        value={f0}
-        disabled={readOnly}
-        hint="Sets the tension"
-        onCommit={(hz) => positive(hz, 'Pitch') ?? commit('string.tensionN', tensionForPitchN(patch.string.lengthM, patch.string.linearDensityKgPerM, hz))}
-      />
-      <NumberField label="Tension" unit="N" value={patch.string.tensionN} disabled={readOnly} onCommit={(n) => commit('string.tensionN', n)} />
-      <NumberField label="Linear density" unit="kg/m" value={patch.string.linearDensityKgPerM} disabled={readOnly} onCommit={(v) => commit('string.linearDensityKgPerM', v)} />
-      <NumberField
-        label="Stiffness B"
-        unit=""
-        value={patch.string.inharmonicityB}
-        disabled={readOnly}
-        onCommit={(b) => commit('string.inharmonicityB', b)}
-      />
-      {safety && safety.level !== 'ok' && (
-        <div className="w-full">
-          <Notice tone={safety.level === 'caution' || safety.level === 'unknown' ? 'caution' : 'error'} title="Tension caution">
-            {safety.message}
-          </Notice>
-        </div>
-      )}
-    </Section>
   );
 }
 
@@ -75,8 +35,8 @@ export function LossesPanel({ connection, patch, readOnly }: PanelProps) {
   const highT60 = t60AtFrequency(patch.damping, patch.string, high) ?? Infinity;
   const apply = (lowT60S: number, highT60S: number) => {
     const result = dampingFromT60({ lowFrequencyHz: f0, lowT60S, highFrequencyHz: high, highT60S }, patch.string);
-    if (!result.ok) return result.issues[0].message;
-    return commitPatchNumbers(connection, { 'damping.b1PerS': result.value.b1PerS, 'damping.b2M2PerS': result.value.b2M2PerS });
+    if (!result.ok) return plainIssueMessage(result.issues[0], { lowFrequencyHz: f0, highFrequencyHz: high });
+    return commitPlainNumbers(connection, patch, { 'damping.b1PerS': result.value.b1PerS, 'damping.b2M2PerS': result.value.b2M2PerS });
   };
   return (
     <Section title="Losses">
@@ -98,7 +58,7 @@ export function PickupPanel({ connection, patch, readOnly }: PanelProps) {
         unit="mm"
         value={patch.pickup.positionM * 1000}
         disabled={readOnly}
-        onCommit={(mm) => commitPatchNumbers(connection, { 'pickup.positionM': mm / 1000 })}
+        onCommit={(mm) => commitPlainNumbers(connection, patch, { 'pickup.positionM': mm / 1000 })}
       />
       <label className="flex flex-col gap-0.5 text-xs font-semibold">
         Reads
@@ -119,7 +79,7 @@ export function PickupPanel({ connection, patch, readOnly }: PanelProps) {
 
 /** Render settings of the patch (the live preview is at most 4 s at 48 kHz). */
 export function RenderPanel({ connection, patch, readOnly }: PanelProps) {
-  const commit = (field: PatchNumberField, value: number) => commitPatchNumbers(connection, { [field]: value });
+  const commit = (field: PatchNumberField, value: number) => commitPlainNumbers(connection, patch, { [field]: value });
   return (
     <Section title="Render">
       <NumberField label="Duration" unit="s" value={patch.render.durationS} disabled={readOnly} onCommit={(s) => commit('render.durationS', s)} />
