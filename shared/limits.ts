@@ -13,6 +13,10 @@ export const LIMITS = {
   maxPolylinePoints: 10_000,
   /** Fewest points in one polyline: the two supports. */
   minPolylinePoints: 2,
+  /** Most plucks and strikes one excitation may be made of (a double pluck, a pluck plus a strike, …). */
+  maxExcitationParts: 8,
+  /** Narrowest contact a pluck or strike may have, in metres (0.1 mm: narrower is a knife edge). */
+  minContactWidthM: 1e-4,
   /** Longest patch name, in characters. */
   maxNameLength: 200,
   /** Largest inharmonicity coefficient B accepted (real strings are below 0.01). */

@@ -25,7 +25,21 @@ export interface PointsPart {
   readonly about: string;
 }
 
-export type DocPart = MapPart<unknown> | PointsPart;
+/**
+ * A part stored as a Y.Array of part maps: how `excitation` was made (`excitation.parts`), one Y.Map
+ * of scalars per pluck or strike, so two people moving different plucks never collide.
+ */
+export interface PartsPart {
+  readonly kind: 'parts';
+  readonly section: 'excitation';
+  readonly field: 'parts';
+  readonly about: string;
+}
+
+/** One pluck or strike in the document: its fields as scalars (see shared/patch/excitation-part.ts). */
+export type DocExcitationPart = Y.Map<number | string>;
+
+export type DocPart = MapPart<unknown> | PointsPart | PartsPart;
 
 const mapPart = <V>(section: PatchSectionName | null, about: string): MapPart<V> => ({ kind: 'map', section, about });
 
@@ -55,6 +69,7 @@ export const DOC_LAYOUT = {
   render: mapPart<number>('render', 'sample rate, duration, most modes'),
   displacement: { kind: 'points', section: 'excitation', field: 'displacementM', about: 'interior points of the initial displacement' },
   velocity: { kind: 'points', section: 'excitation', field: 'velocityMPerS', about: 'interior points of the initial velocity' },
+  excitationParts: { kind: 'parts', section: 'excitation', field: 'parts', about: 'the plucks and strikes the polylines were made from' },
   extras: mapPart<unknown>(null, 'pass-through fields beside the sections (design record, tags)'),
 } as const satisfies Record<string, DocPart>;
 
@@ -68,7 +83,13 @@ export const DOC_PART_NAMES = Object.keys(DOC_LAYOUT) as DocPartName[];
 
 /** The shared types of a document, one per part, typed by the layout. */
 export type PatchDoc = {
-  [K in DocPartName]: (typeof DOC_LAYOUT)[K] extends PointsPart ? Y.Array<DocPoint> : (typeof DOC_LAYOUT)[K] extends MapPart<infer V> ? Y.Map<V> : never;
+  [K in DocPartName]: (typeof DOC_LAYOUT)[K] extends PointsPart
+    ? Y.Array<DocPoint>
+    : (typeof DOC_LAYOUT)[K] extends PartsPart
+      ? Y.Array<DocExcitationPart>
+      : (typeof DOC_LAYOUT)[K] extends MapPart<infer V>
+        ? Y.Map<V>
+        : never;
 };
 
 /**
@@ -77,7 +98,7 @@ export type PatchDoc = {
  */
 export function patchDoc(doc: Y.Doc): PatchDoc {
   const parts: Record<string, unknown> = {};
-  for (const name of DOC_PART_NAMES) parts[name] = DOC_LAYOUT[name].kind === 'points' ? doc.getArray(name) : doc.getMap(name);
+  for (const name of DOC_PART_NAMES) parts[name] = DOC_LAYOUT[name].kind === 'map' ? doc.getMap(name) : doc.getArray(name);
   return parts as unknown as PatchDoc;
 }
 

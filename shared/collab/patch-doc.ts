@@ -2,7 +2,7 @@ import * as Y from 'yjs';
 import { patchSchema, type Patch } from '../patch/patch-schema';
 import { validatePatch } from '../patch/validate-patch';
 import { fieldIssue, type FieldIssue, type Validation } from '../patch/field-issue';
-import { DOC_LAYOUT, DOC_PART_NAMES, patchDoc, type DocPartName, type DocPoint, type PatchSectionName, type PointsPart, type PointsPartName } from './doc-layout';
+import { DOC_LAYOUT, DOC_PART_NAMES, patchDoc, type DocExcitationPart, type DocPartName, type DocPoint, type PatchSectionName, type PointsPart, type PointsPartName } from './doc-layout';
 
 // The layout lives in doc-layout.ts; these are re-exported for the many callers that read the document here.
 export { DOC_LAYOUT, docSharedTypes, patchDoc, type DocPoint, type PatchDoc } from './doc-layout';
@@ -37,6 +37,19 @@ function setAll<T>(map: Y.Map<T>, values: Record<string, T>): void {
   for (const key of [...map.keys()]) if (!(key in values)) map.delete(key);
 }
 
+/** Replaces the excitation's parts (plucks, strikes) with new part maps; none when the patch has none. */
+function replaceParts(array: Y.Array<DocExcitationPart>, parts: Patch['excitation']['parts']): void {
+  if (array.length > 0) array.delete(0, array.length);
+  if (parts && parts.length > 0) array.insert(0, parts.map((part) => docExcitationPart(part)));
+}
+
+/** One pluck or strike as a map of its scalar fields. */
+export function docExcitationPart(part: Readonly<Record<string, number | string>>): DocExcitationPart {
+  const map = new Y.Map<number | string>();
+  for (const [key, value] of Object.entries(part)) map.set(key, value);
+  return map;
+}
+
 function replacePoints(array: Y.Array<DocPoint>, polyline: ReadonlyArray<readonly [number, number]> | undefined): void {
   const interior = polyline ? polyline.slice(1, -1) : [];
   if (array.length > 0) array.delete(0, array.length);
@@ -64,6 +77,7 @@ export function writePatchToDoc(doc: Y.Doc, patch: Patch, origin: unknown = null
     mapValues.set('extras', Object.fromEntries(Object.entries(patch).filter(([key]) => !SECTION_NAMES.has(key))));
     for (const [name, values] of mapValues) setAll(parts[name] as Y.Map<unknown>, values);
     for (const [name, part] of POINT_PARTS) replacePoints(parts[name], patch.excitation[part.field]);
+    replaceParts(parts.excitationParts, patch.excitation.parts);
   }, origin);
 }
 
@@ -119,6 +133,13 @@ export function docShapeIssues(doc: Y.Doc): FieldIssue[] {
       }
     }
   }
+  // A pluck or strike is a map of scalars; its fields and their bounds are the patch schema's to check.
+  parts.excitationParts.toArray().forEach((entry: unknown, index) => {
+    if (issues.length >= 5) return;
+    const path = ['excitation', 'parts', index + 1];
+    if (!(entry instanceof Y.Map)) issues.push(fieldIssue(path, 'must be a pluck or a strike', entry instanceof Y.AbstractType ? 'a shared text or list' : entry));
+    else if ([...entry.values()].some((value: unknown) => typeof value !== 'number' && typeof value !== 'string')) issues.push(fieldIssue(path, 'must hold only numbers and names', undefined, false));
+  });
   return issues;
 }
 
@@ -135,6 +156,8 @@ export function patchFromDoc(doc: Y.Doc): unknown {
         if (part.field === 'velocityMPerS' && !parts.meta.get(HAS_VELOCITY)) continue;
         excitation[part.field] = readPolyline(parts[name], lengthM);
       }
+      // Only a shape made from plucks or strikes carries parts, so other patches read back unchanged.
+      if (parts.excitationParts.length > 0) excitation.parts = parts.excitationParts.toArray().map((part) => (part instanceof Y.Map ? part.toJSON() : part));
       out[section] = excitation;
       continue;
     }

@@ -1,6 +1,9 @@
-import { LIMITS } from '../../../../shared/limits';
-import type { Metres } from '../../../../shared/units';
-import { minPointGapM } from './point-insertion';
+import { LIMITS } from '../limits';
+import type { Metres } from '../units';
+import { MIN_POINT_GAP_FRACTION } from './point-edits';
+
+/** Smallest distance two neighbouring points may keep on a string of this length (as `allowedRangeM` keeps). */
+const minPointGapM = (lengthM: Metres): Metres => lengthM * MIN_POINT_GAP_FRACTION;
 
 /** Default number of points sampling the rounded top: the peak and six on each side. */
 export const PLUCK_CAP_POINTS = 13;

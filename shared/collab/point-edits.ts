@@ -17,6 +17,16 @@ function lengthOf(doc: Y.Doc): Metres {
   return patchDoc(doc).string.get('lengthM') as number;
 }
 
+/**
+ * Why a layer cannot be edited point by point: it is made by plucks (the shape) or strikes (the
+ * strike layer), whose polylines are remade from them on every change. Null when it can.
+ */
+export function layerMadeByPartsReason(doc: Y.Doc, layer: Layer): string | null {
+  const kind = layer === 'displacement' ? 'pluck' : 'strike';
+  const made = patchDoc(doc).excitationParts.toArray().some((part) => typeof part?.get === 'function' && part.get('kind') === kind);
+  return made ? `the ${layer === 'displacement' ? 'shape' : 'strike layer'} is made by a ${kind}: drag its handle, or convert it to free points to edit it point by point` : null;
+}
+
 /** The x range a point may move in: strictly between its neighbours (or the supports). */
 export function allowedRangeM(doc: Y.Doc, layer: Layer, index: number): { minM: Metres; maxM: Metres } {
   const array = layerArray(doc, layer);
@@ -35,6 +45,8 @@ export function movePoint(doc: Y.Doc, layer: Layer, index: number, xM: Metres, v
   const array = layerArray(doc, layer);
   if (!Number.isInteger(index) || index < 0 || index >= array.length) return { ok: false, reason: `no point ${index} on the ${layer} layer` };
   if (!Number.isFinite(xM) || !Number.isFinite(value)) return { ok: false, reason: 'x and value must be finite numbers' };
+  const made = layerMadeByPartsReason(doc, layer);
+  if (made) return { ok: false, reason: made };
   const { minM, maxM } = allowedRangeM(doc, layer, index);
   if (!(minM < maxM)) return { ok: false, reason: 'no room to move this point' };
   const point = array.get(index);
@@ -50,6 +62,8 @@ export function insertPoint(doc: Y.Doc, layer: Layer, xM: Metres, value: number,
   const lengthM = lengthOf(doc);
   if (!Number.isFinite(xM) || !Number.isFinite(value)) return { ok: false, reason: 'x and value must be finite numbers' };
   if (!(xM > 0 && xM < lengthM)) return { ok: false, reason: `x must lie between the supports (0 and ${lengthM} m)` };
+  const made = layerMadeByPartsReason(doc, layer);
+  if (made) return { ok: false, reason: made };
   const array = layerArray(doc, layer);
   let index = 0;
   while (index < array.length && (array.get(index).get('x') as number) < xM) index++;
@@ -61,6 +75,8 @@ export function insertPoint(doc: Y.Doc, layer: Layer, xM: Metres, value: number,
 export function deletePoint(doc: Y.Doc, layer: Layer, index: number, origin?: unknown): EditResult {
   const array = layerArray(doc, layer);
   if (!Number.isInteger(index) || index < 0 || index >= array.length) return { ok: false, reason: `no point ${index} on the ${layer} layer` };
+  const made = layerMadeByPartsReason(doc, layer);
+  if (made) return { ok: false, reason: made };
   doc.transact(() => array.delete(index, 1), origin);
   return { ok: true };
 }
@@ -79,6 +95,14 @@ export function setLengthM(doc: Y.Doc, lengthM: Metres, origin?: unknown): EditR
     for (const array of [parts.displacement, parts.velocity]) {
       array.forEach((point) => point.set('x', (point.get('x') as number) * scale));
     }
+    // A pluck's or strike's shape scales exactly with its position and width (pluckShape's heights
+    // depend on x only through x/p and w/p), so scaling both keeps the parts and the points in step.
+    parts.excitationParts.forEach((part) => {
+      for (const key of ['positionM', 'widthM']) {
+        const value = part.get(key);
+        if (typeof value === 'number') part.set(key, value * scale);
+      }
+    });
     const pickup = parts.pickup.get('positionM') as number;
     parts.pickup.set('positionM', Math.min(lengthM * (1 - MIN_POINT_GAP_FRACTION), pickup * scale));
   }, origin);
@@ -91,6 +115,8 @@ export function setLengthM(doc: Y.Doc, lengthM: Metres, origin?: unknown): EditR
  * order, closer than the minimum gap or not finite, and then changes nothing.
  */
 export function replaceLayerPoints(doc: Y.Doc, layer: Layer, interior: ReadonlyArray<readonly [number, number]>, origin?: unknown): EditResult {
+  const made = layerMadeByPartsReason(doc, layer);
+  if (made) return { ok: false, reason: made };
   const lengthM = lengthOf(doc);
   const gap = lengthM * MIN_POINT_GAP_FRACTION;
   let previous = 0;

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { LIMITS } from '../limits';
+import { excitationPartsSchema } from './excitation-part';
 
 /**
  * The patch: one JSON format exchanged by the browser, the server and the command line.
@@ -36,6 +37,8 @@ export const stringSchema = z.looseObject({
 export const excitationSchema = z.looseObject({
   displacementM: polyline,
   velocityMPerS: polyline.optional(),
+  /** How the polylines were made (plucks and strikes), for the editor; the polylines stay authoritative. */
+  parts: excitationPartsSchema.optional(),
 });
 
 export const dampingSchema = z.looseObject({

@@ -1,7 +1,7 @@
 import * as Y from 'yjs';
 import { describe, expect, it } from 'vitest';
 import { DOC_LAYOUT, SECTIONLESS_PARTS, docLayoutGaps, docSharedTypes, type DocPart } from '../../../shared/collab/doc-layout';
-import { docPoint, patchDoc, patchFromDoc, writePatchToDoc } from '../../../shared/collab/patch-doc';
+import { docExcitationPart, docPoint, patchDoc, patchFromDoc, writePatchToDoc } from '../../../shared/collab/patch-doc';
 import { patchSchema } from '../../../shared/patch/patch-schema';
 import { pluckedAndStruck, testPatch, validPatch } from '../../support/patches';
 
@@ -31,7 +31,7 @@ describe('the shared document has one layout', () => {
     expect(types).toHaveLength(partNames.length);
     partNames.forEach((name, index) => {
       expect(types[index]).toBe(doc.share.get(name));
-      expect(types[index]).toBeInstanceOf(DOC_LAYOUT[name as keyof typeof DOC_LAYOUT].kind === 'points' ? Y.Array : Y.Map);
+      expect(types[index]).toBeInstanceOf(DOC_LAYOUT[name as keyof typeof DOC_LAYOUT].kind === 'map' ? Y.Map : Y.Array);
     });
   });
 
@@ -45,6 +45,7 @@ describe('the shared document has one layout', () => {
     displacement: (doc) => patchDoc(doc).displacement.push([docPoint(0.5, 0.001)]),
     velocity: (doc) => patchDoc(doc).velocity.push([docPoint(0.6, 0.2)]),
     extras: (doc) => patchDoc(doc).extras.set('design', { material: 'steel' }),
+    excitationParts: (doc) => patchDoc(doc).excitationParts.push([docExcitationPart({ kind: 'pluck', positionM: 0.17, heightM: 0.003, widthM: 0.04, contact: 'fingertip' })]),
   };
 
   it.each(partNames)('undoes a person\'s edit of the %s part', (name) => {
