@@ -49,6 +49,15 @@ export interface Connection {
 /** How long to wait before trying again to store edits the database refused. */
 const RETRY_STORE_MS = 1000;
 
+/** JSON with every object's keys sorted, so two equal patches compare equal whatever order their fields were written in. */
+function sortedJson(value: unknown): string {
+  return JSON.stringify(value, (_key, inner: unknown) =>
+    inner !== null && typeof inner === 'object' && !Array.isArray(inner)
+      ? Object.fromEntries(Object.entries(inner as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)))
+      : inner,
+  );
+}
+
 /**
  * One session's live document: its connections, presence, and persistence. Every update is queued
  * for the database before it is broadcast, and written within FLUSH_MS; the session's patch JSON is
@@ -66,6 +75,8 @@ export class CollabRoom extends EventEmitter {
   private updatesSinceCompact = 0;
   private patchTimer: NodeJS.Timeout | null = null;
   private lastWriter: string | null = null;
+  /** The patch as last saved (or as loaded), in sorted-key JSON: only a real change refreshes it and the session's "last edited". */
+  private savedPatchJson: string | null = null;
   private closed = false;
   /** Set once the session is being deleted: nothing more is written (see stopStoring). */
   private storingStopped = false;
@@ -122,6 +133,8 @@ export class CollabRoom extends EventEmitter {
       // First time live: the document starts from the session's patch, written once and stored.
       writePatchToDoc(this.doc, stored.patch, SERVER_ORIGIN);
     }
+    const opened = validatedPatchFromDoc(this.doc);
+    if (opened.ok) this.savedPatchJson = sortedJson(opened.value);
   }
 
   private onUpdate(update: Uint8Array, origin: unknown): void {
@@ -201,7 +214,11 @@ export class CollabRoom extends EventEmitter {
     try {
       const result = validatedPatchFromDoc(this.doc);
       if (!result.ok) return;
+      // Opening, syncing and closing change nothing: the patch and "last edited" are written only when the patch differs.
+      const json = sortedJson(result.value);
+      if (json === this.savedPatchJson) return;
       await this.storage.savePatch(this.sessionId, result.value, this.lastWriter);
+      this.savedPatchJson = json;
     } catch (error) {
       this.log(`collab: could not refresh the patch of session ${this.sessionId}: ${(error as Error).message}`);
     }

@@ -49,7 +49,14 @@ export function typeormCollabStorage(dataSource: DataSource, clock: () => Date):
     },
     async compact(sessionId, state, upToId) {
       await dataSource.transaction(async (manager) => {
-        await manager.update(Session, { id: sessionId }, { docState: Buffer.from(state) });
+        // Folding the log is storage housekeeping, not an edit: updatedAt is set to itself, so TypeORM's
+        // UpdateDateColumn does not stamp it with the database's time ("last edited" moves only with edits).
+        await manager
+          .createQueryBuilder()
+          .update(Session)
+          .set({ docState: Buffer.from(state), updatedAt: () => 'updatedAt' })
+          .where('id = :id', { id: sessionId })
+          .execute();
         await manager.delete(SessionUpdate, { sessionId, id: LessThanOrEqual(upToId) });
       });
     },
