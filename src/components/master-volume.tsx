@@ -5,8 +5,8 @@ import { MASTER_VOLUME_DB, setMasterVolumeDb, storedMasterVolumeDb } from '../li
 export function MasterVolume() {
   const [volumeDb, setVolumeDb] = useState(storedMasterVolumeDb);
   return (
-    <label className="flex items-center gap-2 text-sm text-slate-700 dark:text-slate-300" title="Master volume of every preview (a limiter follows it)">
-      <span>Volume</span>
+    <label className="flex shrink-0 items-center gap-2 text-sm text-slate-700 dark:text-slate-300" title="Master volume of every preview (a limiter follows it)">
+      <span className="sr-only xl:not-sr-only">Volume</span>
       <input
         type="range"
         min={MASTER_VOLUME_DB.min}
@@ -14,7 +14,7 @@ export function MasterVolume() {
         step={1}
         value={volumeDb}
         aria-valuetext={`${volumeDb} dB`}
-        className="w-24 accent-brass-500"
+        className="w-20 accent-brass-500 xl:w-24"
         onChange={(event) => {
           setVolumeDb(Number(event.target.value));
           void setMasterVolumeDb(Number(event.target.value));

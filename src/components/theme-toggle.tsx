@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useLayoutEffect, useState } from 'react';
 import { applyTheme, storedTheme, type ThemeChoice } from './theme';
 
 const order: ThemeChoice[] = ['system', 'light', 'dark'];
@@ -7,7 +7,9 @@ const labels: Record<ThemeChoice, string> = { system: 'Theme: follows system', l
 /** Cycles system → light → dark; the choice is remembered on this device. */
 export function ThemeToggle() {
   const [choice, setChoice] = useState<ThemeChoice>(storedTheme);
-  useEffect(() => {
+  // A layout effect: the class is on <html> before any page's effects run or anything is painted, so a
+  // canvas drawn on a direct load already sees the dark theme.
+  useLayoutEffect(() => {
     applyTheme(choice);
     if (choice !== 'system') return;
     const media = window.matchMedia?.('(prefers-color-scheme: dark)');

@@ -76,17 +76,24 @@ export function NoteKeyboard({ patch }: { patch: Patch }) {
       <div className="flex overflow-x-auto" role="group" aria-label="Keys">
         {notes.map((note) => {
           const black = BLACK.has(((note % 12) + 12) % 12);
+          const isRoot = note === root;
+          // Every white key is named; the root (the string's own pitch) is filled and marked.
+          const face = isRoot
+            ? 'z-10 bg-brass-400 text-slate-950 ring-2 ring-inset ring-brass-700 dark:bg-brass-400 dark:ring-brass-200'
+            : black
+              ? 'bg-slate-900 text-slate-100 dark:bg-slate-700'
+              : 'bg-white text-slate-700 dark:bg-slate-100 dark:text-slate-900';
           return (
             <button
               key={note}
               type="button"
               aria-label={`Play ${midiToNoteName(note)}`}
+              title={isRoot ? `${midiToNoteName(note)}: the string's own pitch` : midiToNoteName(note)}
               onClick={() => void play(note)}
-              className={`-ml-px h-20 w-8 shrink-0 rounded-b border border-slate-700/40 text-[10px] focus-visible:outline-2 focus-visible:outline-teal-400 ${
-                black ? 'bg-slate-900 text-slate-100 dark:bg-slate-700' : 'bg-white text-slate-700 dark:bg-slate-100 dark:text-slate-900'
-              } ${note === root ? 'ring-2 ring-brass-500' : ''}`}
+              className={`-ml-px flex h-20 w-8 shrink-0 flex-col items-center justify-end rounded-b border border-slate-700/40 pb-1 text-[10px] leading-tight focus-visible:outline-2 focus-visible:outline-teal-400 ${face}`}
             >
-              {note % 12 === 0 ? midiToNoteName(note) : ''}
+              {(!black || isRoot) && <span className={note % 12 === 0 || isRoot ? 'font-semibold' : undefined}>{midiToNoteName(note)}</span>}
+              {isRoot && <span className="text-[9px] font-semibold uppercase">root</span>}
             </button>
           );
         })}

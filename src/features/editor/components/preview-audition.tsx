@@ -76,7 +76,7 @@ export function PreviewAudition({ result, comparisons = [] }: { result: ComputeR
   }, [toggle, switchSide, side, comparison]);
 
   return (
-    <section aria-label="Audition" className="flex flex-wrap items-center gap-3 rounded-lg border border-slate-700/15 p-3 dark:border-slate-300/10">
+    <section aria-label="Audition" className="flex flex-wrap items-center gap-x-3 gap-y-2">
       <Button onClick={toggle} disabledReason={result || playingB ? undefined : 'no preview yet'} aria-keyshortcuts="Space">
         {playing ? '■ Stop' : playingB ? '▶ Play B' : '▶ Play preview'}
       </Button>
@@ -118,7 +118,7 @@ export function PreviewAudition({ result, comparisons = [] }: { result: ComputeR
           )}
         </>
       )}
-      <span className="text-xs text-slate-600 dark:text-slate-300">Space bar plays and stops{comparison ? '; B switches A/B' : ''}</span>
+      <span className="text-xs text-slate-600 dark:text-slate-300">Space plays and stops{comparison ? '; B switches A/B' : ''}</span>
       {info && (
         <span className="text-xs text-slate-600 dark:text-slate-300" data-testid="audition-info">
           {info}

@@ -17,6 +17,8 @@ export interface ModeChartProps {
   issues: FieldIssue[];
   /** Called with the mode number n (1 = fundamental) under the pointer or keyboard, null when none. */
   onHoverMode?: (n: number | null) => void;
+  /** Fill the parent's height (a workbench pane) instead of the fixed height. */
+  fill?: boolean;
 }
 
 const HEIGHT_PX = 240;
@@ -88,7 +90,7 @@ function levelTickLabel(levelDb: number): string {
  * Pointing near a stem, or focusing the chart and stepping with the arrow keys (which reach every
  * mode, drawn or not), shows that mode's figures and reports its number through `onHoverMode`.
  */
-export const ModeChart = memo(function ModeChart({ result, issues, onHoverMode }: ModeChartProps) {
+export const ModeChart = memo(function ModeChart({ result, issues, onHoverMode, fill = false }: ModeChartProps) {
   const state = resultsState(result, issues);
   const figures = useMemo(() => (result ? modeFigures(result) : null), [result]);
   const [inspectedN, setInspectedN] = useState<number | null>(null);
@@ -130,8 +132,8 @@ export const ModeChart = memo(function ModeChart({ result, issues, onHoverMode }
   };
 
   return (
-    <ChartFrame title="Modes" subject="the mode chart" summary={summary} state={state} heightPx={HEIGHT_PX} footer={<T60Legend />}>
-      {(widthPx) =>
+    <ChartFrame title="Modes" subject="the mode chart" summary={summary} state={state} heightPx={fill ? undefined : HEIGHT_PX} footer={<T60Legend />}>
+      {(widthPx, heightPx) =>
         result && figures ? (
           <div
             role="slider"
@@ -157,6 +159,7 @@ export const ModeChart = memo(function ModeChart({ result, issues, onHoverMode }
               result={result}
               figures={figures}
               widthPx={widthPx}
+              heightPx={heightPx}
               shownN={shownN}
               onPointerMode={(n) => {
                 if (n !== null || !focused.current) setInspectedN(n);
@@ -173,14 +176,15 @@ interface ModePlotProps {
   result: ComputeResult;
   figures: ModeFigures;
   widthPx: number;
+  heightPx: number;
   shownN: number | null;
   onPointerMode: (n: number | null) => void;
 }
 
-function ModePlot({ result, figures, widthPx, shownN, onPointerMode }: ModePlotProps) {
+function ModePlot({ result, figures, widthPx, heightPx, shownN, onPointerMode }: ModePlotProps) {
   const count = result.modeCount;
   const plotRight = Math.max(MARGINS.left + 10, widthPx - MARGINS.right);
-  const plotBottom = HEIGHT_PX - MARGINS.bottom;
+  const plotBottom = heightPx - MARGINS.bottom;
   const layout = useMemo(() => {
     const x = logScale(figures.domainHz, [MARGINS.left, plotRight]);
     const xPx = new Float64Array(count);
@@ -197,8 +201,8 @@ function ModePlot({ result, figures, widthPx, shownN, onPointerMode }: ModePlotP
     <>
       <svg
         width={widthPx}
-        height={HEIGHT_PX}
-        viewBox={`0 0 ${widthPx} ${HEIGHT_PX}`}
+        height={heightPx}
+        viewBox={`0 0 ${widthPx} ${heightPx}`}
         className="block"
         onPointerMove={(event) => {
           const px = event.clientX - event.currentTarget.getBoundingClientRect().left;

@@ -52,6 +52,34 @@ export const ResultsPanel = memo(function ResultsPanel({ result, issues, onHover
   );
 });
 
+/**
+ * The workbench's results pane: the headline figures (or the problems) over the mode chart, which
+ * fills the rest of the pane and follows every result. The spectrum and waveform live in the
+ * workbench's tabs instead.
+ */
+export const ModesPane = memo(function ModesPane({ result, issues, onHoverMode }: ResultsPanelProps) {
+  const state = resultsState(result, issues);
+  return (
+    <section aria-label="Results" className="flex h-full min-h-0 flex-col gap-2">
+      {state === 'problems' ? (
+        <Notice tone="caution" title="The patch has problems">
+          <ul className="max-h-24 list-disc overflow-auto pl-5">
+            {issues.slice(0, LISTED_ISSUES).map((issue) => (
+              <li key={`${issue.field}:${issue.problem}`}>{issue.message}</li>
+            ))}
+          </ul>
+          {issues.length > LISTED_ISSUES && <p className="mt-1">…and {issues.length - LISTED_ISSUES} more.</p>}
+        </Notice>
+      ) : (
+        <FiguresLine result={result} />
+      )}
+      <div className="min-h-0 flex-1">
+        <ModeChart result={result} issues={issues} onHoverMode={onHoverMode} fill />
+      </div>
+    </section>
+  );
+});
+
 function FiguresLine({ result }: { result: ComputeResult | null }) {
   if (!result) {
     return (

@@ -12,6 +12,8 @@ import { MINUS } from './si-prefix';
 export interface SpectrumProps {
   result: ComputeResult | null;
   issues: FieldIssue[];
+  /** Fill the parent's height (a workbench pane) instead of the fixed height. */
+  fill?: boolean;
 }
 
 const HEIGHT_PX = 220;
@@ -33,7 +35,7 @@ function levelTickLabel(levelDb: number): string {
  * faint ticks along the top, so one sees which partials the pickup hears. The transform is done once per result;
  * each pixel column draws the largest bin it covers.
  */
-export const Spectrum = memo(function Spectrum({ result, issues }: SpectrumProps) {
+export const Spectrum = memo(function Spectrum({ result, issues, fill = false }: SpectrumProps) {
   const state = resultsState(result, issues);
   const spectrum = useMemo(() => (result ? magnitudeSpectrum(result.preview, result.previewSampleRateHz) : null), [result]);
   const summary =
@@ -46,8 +48,8 @@ export const Spectrum = memo(function Spectrum({ result, issues }: SpectrumProps
       : null;
 
   return (
-    <ChartFrame title="Spectrum" subject="the spectrum" summary={summary} state={state} heightPx={HEIGHT_PX}>
-      {(widthPx) => (result && spectrum ? <SpectrumPlot result={result} spectrum={spectrum} widthPx={widthPx} /> : null)}
+    <ChartFrame title="Spectrum" subject="the spectrum" summary={summary} state={state} heightPx={fill ? undefined : HEIGHT_PX}>
+      {(widthPx, heightPx) => (result && spectrum ? <SpectrumPlot result={result} spectrum={spectrum} widthPx={widthPx} heightPx={heightPx} /> : null)}
     </ChartFrame>
   );
 });
@@ -56,11 +58,12 @@ interface SpectrumPlotProps {
   result: ComputeResult;
   spectrum: ReturnType<typeof magnitudeSpectrum>;
   widthPx: number;
+  heightPx: number;
 }
 
-function SpectrumPlot({ result, spectrum, widthPx }: SpectrumPlotProps) {
+function SpectrumPlot({ result, spectrum, widthPx, heightPx }: SpectrumPlotProps) {
   const plotRight = Math.max(MARGINS.left + 10, widthPx - MARGINS.right);
-  const plotBottom = HEIGHT_PX - MARGINS.bottom;
+  const plotBottom = heightPx - MARGINS.bottom;
   const nyquistHz = result.previewSampleRateHz / 2;
   const toHz = Math.max(nyquistHz, SPECTRUM_FROM_HZ * 2);
   const x = useMemo(() => logScale([SPECTRUM_FROM_HZ, toHz], [MARGINS.left, plotRight]), [toHz, plotRight]);
@@ -89,7 +92,7 @@ function SpectrumPlot({ result, spectrum, widthPx }: SpectrumPlotProps) {
 
   const xTicks = logTicks([SPECTRUM_FROM_HZ, toHz], Math.max(3, Math.floor((plotRight - MARGINS.left) / 40)));
   return (
-    <svg width={widthPx} height={HEIGHT_PX} viewBox={`0 0 ${widthPx} ${HEIGHT_PX}`} className="block" aria-hidden="true">
+    <svg width={widthPx} height={heightPx} viewBox={`0 0 ${widthPx} ${heightPx}`} className="block" aria-hidden="true">
       <SideAxis scale={y} ticks={LEVEL_TICKS_DB} format={levelTickLabel} title="level (dB re max)" at={MARGINS.left} gridTo={plotRight} />
       <BottomAxis scale={x} ticks={xTicks} format={frequencyTickLabel} title="frequency (Hz, log)" at={plotBottom} />
       <path d={modeTicks.path} data-mode-ticks={modeTicks.count} className="stroke-brass-600 dark:stroke-brass-400" strokeWidth={1} opacity={0.45} />

@@ -19,7 +19,7 @@ export function T60Legend() {
     <div className="mt-2 flex flex-wrap items-center gap-x-4 gap-y-1 text-[11px] text-slate-700 dark:text-slate-300">
       <span className="font-semibold text-slate-800 dark:text-slate-100">Colour: decay time T60</span>
       <div
-        className="relative mx-4 w-56 max-w-full pb-4"
+        className="relative mx-3 w-44 max-w-full pb-4"
         role="img"
         aria-label={`Colour scale of decay time, dark for ${formatT60(T60_SCALE_MIN_S)} or less, light for ${formatT60(T60_SCALE_MAX_S)} or more and for modes with no loss`}
       >
@@ -36,7 +36,7 @@ export function T60Legend() {
         ))}
       </div>
       <span aria-hidden="true" className="text-[10px]">
-        shorter: darker · 30 s and longer, or no loss: lightest
+        shorter is darker; 30 s or more, or no loss, lightest
       </span>
     </div>
   );

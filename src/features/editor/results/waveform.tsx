@@ -12,6 +12,8 @@ import { MINUS } from './si-prefix';
 export interface WaveformProps {
   result: ComputeResult | null;
   issues: FieldIssue[];
+  /** Fill the parent's height (a workbench pane) instead of the fixed height. */
+  fill?: boolean;
 }
 
 const HEIGHT_PX = 220;
@@ -35,7 +37,7 @@ function signedLabel(value: number): string {
  * the right-hand axis, 0 dB at the top and −60 dB on the centre line), where an exponential decay is
  * a straight line.
  */
-export const Waveform = memo(function Waveform({ result, issues }: WaveformProps) {
+export const Waveform = memo(function Waveform({ result, issues, fill = false }: WaveformProps) {
   const state = resultsState(result, issues);
   const durationS = result ? result.preview.length / result.previewSampleRateHz : 0;
   const wholeEnvelope = useMemo(() => (result ? rmsEnvelope(result.preview, result.previewSampleRateHz, envelopeBlockS(result.f0Hz, durationS, 0)) : null), [result, durationS]);
@@ -49,15 +51,15 @@ export const Waveform = memo(function Waveform({ result, issues }: WaveformProps
           `The envelope falls from ${formatDb(Math.max(...levels))} to ${formatDb(levels[levels.length - 1])}.`;
   }
   return (
-    <ChartFrame title="Waveform" subject="the waveform" summary={summary} state={state} heightPx={HEIGHT_PX}>
-      {(widthPx) => (result ? <WaveformPlot result={result} durationS={durationS} widthPx={widthPx} /> : null)}
+    <ChartFrame title="Waveform" subject="the waveform" summary={summary} state={state} heightPx={fill ? undefined : HEIGHT_PX}>
+      {(widthPx, heightPx) => (result ? <WaveformPlot result={result} durationS={durationS} widthPx={widthPx} heightPx={heightPx} /> : null)}
     </ChartFrame>
   );
 });
 
-function WaveformPlot({ result, durationS, widthPx }: { result: ComputeResult; durationS: number; widthPx: number }) {
+function WaveformPlot({ result, durationS, widthPx, heightPx }: { result: ComputeResult; durationS: number; widthPx: number; heightPx: number }) {
   const plotRight = Math.max(MARGINS.left + 10, widthPx - MARGINS.right);
-  const plotBottom = HEIGHT_PX - MARGINS.bottom;
+  const plotBottom = heightPx - MARGINS.bottom;
   const columns = Math.max(1, Math.round(plotRight - MARGINS.left));
   const x = useMemo(() => linearScale([0, durationS > 0 ? durationS : 1], [MARGINS.left, plotRight]), [durationS, plotRight]);
   const y = useMemo(() => linearScale([-1, 1], [plotBottom, MARGINS.top]), [plotBottom]);
@@ -87,7 +89,7 @@ function WaveformPlot({ result, durationS, widthPx }: { result: ComputeResult; d
   const timeTicks = linearTicks(x.domain, Math.max(2, Math.floor(columns / 70)));
   const dbScale = linearScale([-ENVELOPE_RANGE_DB, 0], [y(0), y(1)]);
   return (
-    <svg width={widthPx} height={HEIGHT_PX} viewBox={`0 0 ${widthPx} ${HEIGHT_PX}`} className="block" aria-hidden="true">
+    <svg width={widthPx} height={heightPx} viewBox={`0 0 ${widthPx} ${heightPx}`} className="block" aria-hidden="true">
       <SideAxis scale={y} ticks={[-1, -0.5, 0, 0.5, 1]} format={signedLabel} title="amplitude (normalised)" at={MARGINS.left} gridTo={plotRight} />
       <BottomAxis scale={x} ticks={timeTicks} format={(t) => String(t)} title="time (s)" at={plotBottom} />
       <path d={wave} data-waveform="" className="fill-teal-600 stroke-teal-600 dark:fill-teal-400 dark:stroke-teal-400" strokeWidth={0.5} />
