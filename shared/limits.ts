@@ -39,9 +39,16 @@ export const LIMITS = {
   maxTagLength: 32,
   /** Largest JSON request body the API reads, in bytes (a 10,000-point patch is about 0.3 MB). */
   maxRequestBodyBytes: 2 * 1024 * 1024,
-  /** The live preview the server sends while people edit: at most this long and this fast. */
+  /** A preset's audition file: at most this long; every preview at no more than this rate. */
   previewMaxDurationS: 4,
   previewMaxSampleRateHz: 48000,
+  /**
+   * The live preview the server sends while people edit: as long as the patch up to this many
+   * seconds, and at most previewMaxSamples samples (a long preview is sent at a lower standard
+   * rate: 12 s at 24 kHz is 1.15 MB of Float32 per result, not 2.3 MB at 48 kHz).
+   */
+  livePreviewMaxDurationS: 12,
+  previewMaxSamples: 288_000,
   /** Preset audition files: rendered at most this many at once off the event loop, this many more waiting (then 503), kept up to this many bytes. */
   presetPreviewMaxRendering: 2,
   presetPreviewMaxWaiting: 8,

@@ -43,7 +43,7 @@ interface SessionCompute {
  * every subscriber the result, arrays as binary. A patch that fails validation sends its field
  * problems instead.
  */
-export function attachComputeChannel(httpServer: HttpServer, context: AppContext, hub: CollabHub, previewDurationS: number = LIMITS.previewMaxDurationS) {
+export function attachComputeChannel(httpServer: HttpServer, context: AppContext, hub: CollabHub, previewDurationS: number = LIMITS.livePreviewMaxDurationS) {
   const io = new SocketServer<ClientToServerEvents, ServerToClientEvents, InterServerEvents, SocketData>(httpServer, {
     path: '/socket.io/',
     serveClient: false,

@@ -1,13 +1,14 @@
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { previewSampleRateHz } from '../../shared/engine/preview-sample-rate';
+import { LIMITS } from '../../shared/limits';
 import type { Patch } from '../../shared/patch/patch-schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
 import { testPatch } from '../support/patches';
 
 const MARGIN_PX = 36;
-const HEIGHT_PX = 300;
 
 let harness: E2eHarness;
 
@@ -57,7 +58,8 @@ async function pluckPointPx(page: Page, patch: Patch): Promise<{ x: number; y: n
   const range = Number(await page.locator('[data-display-range-m]').getAttribute('data-display-range-m'));
   const [xM, yM] = interior[index];
   const x = box.x + MARGIN_PX + (xM / patch.string.lengthM) * (box.width - 2 * MARGIN_PX);
-  const y = box.y + HEIGHT_PX / 2 - (yM / range) * (HEIGHT_PX / 2 - MARGIN_PX);
+  // The canvas fills its pane: its drawn height is the stage's height.
+  const y = box.y + box.height / 2 - (yM / range) * (box.height / 2 - MARGIN_PX);
   return { x, y, index };
 }
 
@@ -110,10 +112,13 @@ describe('the live session editor in a real browser', () => {
     await designer.getByRole('button', { name: 'Play preview' }).click();
     await designer.getByRole('button', { name: 'Play at this level' }).click();
     const info = await designer.getByTestId('audition-info').textContent({ timeout: 10_000 });
-    const previewSamples = Math.round(Math.min(after.render.durationS, 4) * Math.min(after.render.sampleRateHz, 48000));
-    expect(info).toBe(`${previewSamples} samples at ${Math.min(after.render.sampleRateHz, 48000)} Hz · audio running`);
+    // The preview follows the patch's length up to 12 s, at a rate that keeps it within the sample budget.
+    const previewDurationS = Math.min(after.render.durationS, LIMITS.livePreviewMaxDurationS);
+    const previewRateHz = previewSampleRateHz(after.render.sampleRateHz, previewDurationS);
+    expect(info).toBe(`${Math.round(previewDurationS * previewRateHz)} samples at ${previewRateHz} Hz · audio running`);
 
-    // A note from the on-screen keyboard: the string retuned and rendered in the browser.
+    // A note from the on-screen keyboard (in the workbench's Notes tab): the string retuned and rendered in the browser.
+    await designer.getByRole('tab', { name: 'Notes' }).click();
     await designer.getByRole('button', { name: /^Play [A-G]#?\d$/ }).nth(14).click();
     await expect.poll(() => designer.getByTestId('note-played').textContent(), { timeout: 10_000 }).toMatch(/^Played [A-G]#?\d \(\d+\.\d Hz\), computed in \d+ ms$/);
 
@@ -158,7 +163,7 @@ describe('the live session editor in a real browser', () => {
     const line = shaped.excitation.displacementM;
     const j = line.findIndex(([x]) => x > xM) - 1;
     const yM = line[j][1] + ((line[j + 1][1] - line[j][1]) * (xM - line[j][0])) / (line[j + 1][0] - line[j][0]);
-    await designer.mouse.click(box.x + MARGIN_PX + (xM / shaped.string.lengthM) * (box.width - 2 * MARGIN_PX), box.y + HEIGHT_PX / 2 - (yM / range) * (HEIGHT_PX / 2 - MARGIN_PX));
+    await designer.mouse.click(box.x + MARGIN_PX + (xM / shaped.string.lengthM) * (box.width - 2 * MARGIN_PX), box.y + box.height / 2 - (yM / range) * (box.height / 2 - MARGIN_PX));
     const struck = await settledPatch(designer, sessionId);
     expect(struck.excitation.velocityMPerS).toHaveLength(3);
     expect(struck.excitation.velocityMPerS![1][0]).toBeCloseTo(xM, 2);
@@ -187,8 +192,8 @@ describe('the live session editor in a real browser', () => {
     const box = (await page.locator('canvas').first().boundingBox())!;
     const range = Number(await page.locator('[data-display-range-m]').getAttribute('data-display-range-m'));
     const drawable = box.width - 2 * MARGIN_PX;
-    const halfHeight = HEIGHT_PX / 2 - MARGIN_PX;
-    const strokeY = (u: number) => box.y + HEIGHT_PX / 2 - Math.sin(Math.PI * u) * 0.5 * halfHeight;
+    const halfHeight = box.height / 2 - MARGIN_PX;
+    const strokeY = (u: number) => box.y + box.height / 2 - Math.sin(Math.PI * u) * 0.5 * halfHeight;
     await page.mouse.move(box.x + MARGIN_PX + 0.02 * drawable, strokeY(0.02));
     await page.mouse.down();
     for (let step = 1; step <= 80; step++) {
@@ -230,7 +235,8 @@ describe('the live session editor in a real browser', () => {
     await page.keyboard.press('ArrowRight');
     await expect.poll(async () => (await storedPatch(page, sessionId)).excitation.displacementM[1][0], { timeout: 10_000 }).toBeCloseTo(typed.excitation.displacementM[1][0] + 0.001, 9);
 
-    // Slow motion: the string on its own stage moves while it plays.
+    // Slow motion (a tab of the workbench): the string on its own stage moves while it plays.
+    await page.getByRole('tab', { name: 'Slow motion' }).click();
     const motion = page.getByTestId('string-motion');
     const still = await motion.screenshot();
     await page.getByRole('button', { name: 'Play motion' }).click();
@@ -250,6 +256,7 @@ describe('the live session editor in a real browser', () => {
     await expect.poll(() => page.getByTestId('audition-info').textContent(), { timeout: 10_000 }).toMatch(new RegExp(`^B: ${presetName.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')} · \\d+\\.\\d\\d s$`));
 
     // A note-on from the MIDI keyboard plays that note, retuned and rendered.
+    await page.getByRole('tab', { name: 'Notes' }).click();
     await page.getByRole('button', { name: 'Use MIDI keyboard' }).click();
     await page.getByText('MIDI: 1 input connected.').waitFor();
     await page.evaluate(() => (window as unknown as { __midiInput: { onmidimessage: (event: { data: Uint8Array }) => void } }).__midiInput.onmidimessage({ data: new Uint8Array([0x90, 64, 100]) }));
