@@ -87,10 +87,27 @@ describe('the members page', () => {
     });
     const select = (await screen.findByRole('combobox', { name: 'Role of Tamsin Okafor' })) as HTMLSelectElement;
     fireEvent.change(select, { target: { value: 'lead' } });
+    // Asked first: nothing is sent until confirmed.
+    const question = await screen.findByText('Make Tamsin Okafor a lead?');
+    expect(api.sent('PATCH', `${MEMBERS_PATH}/user-tamsin`)).toHaveLength(0);
+    fireEvent.click(within(question.closest('[role="status"]') as HTMLElement).getByRole('button', { name: 'Yes, make lead' }));
     await waitFor(() => expect(api.sent('PATCH', `${MEMBERS_PATH}/user-tamsin`)).toHaveLength(1));
     expect(api.sent('PATCH', `${MEMBERS_PATH}/user-tamsin`)[0].body).toEqual({ role: 'lead' });
+    // Says what happened, once.
+    expect((await screen.findAllByText(/^Tamsin Okafor is now a lead: manages members and presets/)).length).toBe(1);
     // Two leads now: neither is locked.
     await waitFor(() => expect((screen.getByRole('combobox', { name: 'Role of Wren Halloway' }) as HTMLSelectElement).disabled).toBe(false));
+  });
+
+  it('withdraws a role change that is not confirmed: nothing is sent and the role stays', async () => {
+    const { api } = renderMembers([wren, tamsin]);
+    const select = (await screen.findByRole('combobox', { name: 'Role of Tamsin Okafor' })) as HTMLSelectElement;
+    fireEvent.change(select, { target: { value: 'listener' } });
+    expect(select.value).toBe('listener');
+    fireEvent.click(await screen.findByRole('button', { name: 'Keep designer' }));
+    await waitFor(() => expect((screen.getByRole('combobox', { name: 'Role of Tamsin Okafor' }) as HTMLSelectElement).value).toBe('designer'));
+    expect(screen.queryByText(/Make Tamsin Okafor/)).toBeNull();
+    expect(api.sent('PATCH', `${MEMBERS_PATH}/user-tamsin`)).toHaveLength(0);
   });
 
   it('asks before removing, and shows the server’s 409 when it refuses', async () => {

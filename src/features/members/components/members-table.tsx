@@ -11,7 +11,7 @@ import { useChangeRole } from '../api/change-role';
 import { useMembers } from '../api/get-members';
 import { useRemoveMember } from '../api/remove-member';
 import { formatDate, formatDateTime } from '../format-time';
-import { LAST_LEAD_REASON, ROLE_NAMES } from '../role-words';
+import { LAST_LEAD_REASON, ROLE_NAMES, ROLE_SUMMARIES } from '../role-words';
 import { ConfirmAction } from '../../../components/confirm-action';
 import { RoleSelect } from './role-select';
 
@@ -31,6 +31,9 @@ export function MembersTable({ studio, meId }: MembersTableProps) {
   const remove = useRemoveMember(studio.id);
   const navigate = useNavigate();
   const [selfDemotion, setSelfDemotion] = useState<Role | null>(null);
+  /** A role change asked for and waiting for its confirmation; then what happened, said once. */
+  const [asked, setAsked] = useState<{ member: MemberView; role: Role } | null>(null);
+  const [done, setDone] = useState<string | null>(null);
 
   if (members.isPending) return <LoadingBlock label="Loading members…" rows={3} />;
   if (members.isError) {
@@ -49,15 +52,28 @@ export function MembersTable({ studio, meId }: MembersTableProps) {
     if (role === member.role) return;
     changeRole.reset();
     remove.reset();
+    setDone(null);
     if (member.userId === meId && member.role === 'lead') {
       setSelfDemotion(role);
       return;
     }
-    changeRole.mutate({ userId: member.userId, input: { role } });
+    setAsked({ member, role });
+  };
+  const confirmRole = () => {
+    if (!asked) return;
+    const { member, role } = asked;
+    changeRole.mutate(
+      { userId: member.userId, input: { role } },
+      {
+        onSuccess: () => setDone(`${member.displayName} is now ${role === 'lead' ? 'a lead' : `a ${role}`}: ${ROLE_SUMMARIES[role].charAt(0).toLowerCase()}${ROLE_SUMMARIES[role].slice(1)}`),
+        onSettled: () => setAsked(null),
+      },
+    );
   };
   const shownRole = (member: MemberView): Role => {
     if (changeRole.isPending && changeRole.variables?.userId === member.userId) return changeRole.variables.input.role;
     if (member.userId === meId && selfDemotion) return selfDemotion;
+    if (asked?.member.userId === member.userId) return asked.role;
     return member.role;
   };
 
@@ -147,6 +163,22 @@ export function MembersTable({ studio, meId }: MembersTableProps) {
           </div>
         </Notice>
       )}
+      {asked && (
+        <Notice tone="caution" title={`Make ${asked.member.displayName} ${asked.role === 'lead' ? 'a lead' : `a ${asked.role}`}?`}>
+          <p>
+            {ROLE_NAMES[asked.role]}: {ROLE_SUMMARIES[asked.role]} Now {ROLE_NAMES[asked.member.role].toLowerCase()}: {ROLE_SUMMARIES[asked.member.role]} Open sessions follow the change at once.
+          </p>
+          <div className="mt-3 flex gap-2">
+            <Button busy={changeRole.isPending} onClick={confirmRole}>
+              Yes, make {ROLE_NAMES[asked.role].toLowerCase()}
+            </Button>
+            <Button variant="ghost" disabled={changeRole.isPending} onClick={() => setAsked(null)}>
+              Keep {ROLE_NAMES[asked.member.role].toLowerCase()}
+            </Button>
+          </div>
+        </Notice>
+      )}
+      {done && <Notice tone="success">{done}</Notice>}
       {changeRole.isError && (
         <Notice tone="error" title="The role did not change">
           {changeRole.error.message}
