@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import type { SessionSummary } from '../../../shared/api/responses';
 import { ACTION_REASONS, can } from '../../../shared/access/roles';
 import { Button } from '../../components/button';
@@ -13,6 +13,7 @@ import { useSessions } from '../../lib/queries/get-sessions';
 import { useSessionPresence } from '../../features/sessions/api/get-session-presence';
 import { updateSessionInputSchema, useUpdateSession } from '../../features/sessions/api/update-session';
 import { SessionsTable } from '../../features/sessions/components/sessions-table';
+import { useDuplicateSession } from '../../features/sessions/api/duplicate-session';
 import { useFieldErrors } from '../../lib/use-field-errors';
 import NotFoundPage from './not-found-page';
 
@@ -26,6 +27,7 @@ export default function StudioHomePage() {
   const presence = useSessionPresence(studioId);
   const create = useCreateSession(studioId);
   const update = useUpdateSession(studioId);
+  const duplicate = useDuplicateSession(studioId);
   const createFields = useFieldErrors();
   const renameFields = useFieldErrors();
   const [newName, setNewName] = useState('');
@@ -89,6 +91,17 @@ export default function StudioHomePage() {
         </label>
       </div>
       {update.isError && !renaming && <Notice tone="error">{update.error.message}</Notice>}
+      {duplicate.isError && <Notice tone="error">{duplicate.error.message}</Notice>}
+      {duplicate.isSuccess && (
+        <div role="status" className="mb-3">
+          <Notice tone="info">
+            Copied as{' '}
+            <Link className="underline" to={`/sessions/${duplicate.data.id}`}>
+              {duplicate.data.name}
+            </Link>
+          </Notice>
+        </div>
+      )}
       {sessions.isPending ? (
         <LoadingBlock label="Loading sessions…" />
       ) : sessions.isError ? (
@@ -103,6 +116,8 @@ export default function StudioHomePage() {
           busyId={update.isPending ? update.variables?.sessionId : undefined}
           onRename={(session) => setRenaming({ session, name: session.name })}
           onArchive={(session, archived) => update.mutate({ sessionId: session.id, input: { archived } })}
+          onDuplicate={(session) => duplicate.mutate(session.id)}
+          duplicatingId={duplicate.isPending ? duplicate.variables : undefined}
         />
       )}
     </>

@@ -24,6 +24,10 @@ describe('presets page: row actions of a lead', () => {
 
     await user.selectOptions(menu, 'Harbour night cue');
     await user.click(within(panel).getByRole('button', { name: 'Load preset' }));
+    // Asked first: nothing is sent until the lead confirms.
+    await within(panel).findByText('Replace the string of “Harbour night cue” for everyone in it?');
+    expect(api.requestsTo('POST', '/api/sessions/session-harbour/load-preset')).toHaveLength(0);
+    await user.click(within(panel).getByRole('button', { name: 'Yes, load it' }));
     const link = await within(panel).findByRole('link', { name: 'Open “Harbour night cue”' });
     expect(link.getAttribute('href')).toBe('/sessions/session-harbour');
     expect(api.requestsTo('POST', '/api/sessions/session-harbour/load-preset')[0].body).toEqual({ presetId: 'preset-breakwater' });

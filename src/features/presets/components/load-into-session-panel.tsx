@@ -1,11 +1,13 @@
 import { useId, useState, type FormEvent } from 'react';
-import { Link } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import type { PresetSummary, SessionSummary } from '../../../../shared/api/responses';
 import { Button } from '../../../components/button';
 import { LoadingBlock } from '../../../components/loading-block';
 import { Notice } from '../../../components/notice';
 import { useSessions } from '../../../lib/queries/get-sessions';
 import { useLoadPresetIntoSession } from '../api/load-preset-into-session';
+import { useStartSessionFromPreset } from '../../../lib/queries/start-session-from-preset';
+import { LIMITS } from '../../../../shared/limits';
 import { ActionPanel } from './action-panel';
 
 export interface LoadIntoSessionPanelProps {
@@ -23,6 +25,9 @@ export function LoadIntoSessionPanel({ studioId, preset, onClose }: LoadIntoSess
   const [sessionId, setSessionId] = useState('');
   const [choiceError, setChoiceError] = useState<string | undefined>();
   const [loadedInto, setLoadedInto] = useState<SessionSummary | null>(null);
+  const [confirming, setConfirming] = useState<SessionSummary | null>(null);
+  const start = useStartSessionFromPreset(studioId);
+  const navigate = useNavigate();
   const selectId = useId();
   const open = sessions.data?.filter((session) => !session.archived) ?? [];
 
@@ -34,8 +39,12 @@ export function LoadIntoSessionPanel({ studioId, preset, onClose }: LoadIntoSess
       return;
     }
     setChoiceError(undefined);
+    // Asked first: the session's string changes for everyone in it.
+    if (confirming?.id !== target.id) return setConfirming(target);
     load.mutate({ sessionId: target.id, input: { presetId: preset.id } }, { onSuccess: () => setLoadedInto(target) });
   };
+  const startSession = () =>
+    start.mutate({ presetId: preset.id, name: preset.name.slice(0, LIMITS.maxLabelLength) }, { onSuccess: (session) => navigate(`/sessions/${session.id}`) });
 
   return (
     <ActionPanel title={<>Load “{preset.name}” into a session</>} onClose={onClose} focusTitle={sessions.isPending || open.length === 0 || loadedInto !== null}>
@@ -76,7 +85,10 @@ export function LoadIntoSessionPanel({ studioId, preset, onClose }: LoadIntoSess
             <select
               id={selectId}
               value={sessionId}
-              onChange={(event) => setSessionId(event.target.value)}
+              onChange={(event) => {
+                setSessionId(event.target.value);
+                setConfirming(null);
+              }}
               aria-invalid={choiceError ? true : undefined}
               aria-describedby={`${selectId}-hint ${selectId}-error`}
               autoFocus
@@ -98,13 +110,36 @@ export function LoadIntoSessionPanel({ studioId, preset, onClose }: LoadIntoSess
               {choiceError ?? ''}
             </p>
           </div>
-          <Button type="submit" className="mt-6" busy={load.isPending}>
-            Load preset
-          </Button>
-          <Button variant="ghost" className="mt-6" onClick={onClose}>
-            Cancel
-          </Button>
+          {confirming ? (
+            <div role="group" aria-label={`Replace the string of “${confirming.name}”?`} className="mt-6 flex flex-wrap items-center gap-2">
+              <span className="text-sm">Replace the string of “{confirming.name}” for everyone in it?</span>
+              <Button type="submit" variant="danger" busy={load.isPending}>
+                Yes, load it
+              </Button>
+              <Button variant="ghost" onClick={() => setConfirming(null)}>
+                Cancel
+              </Button>
+            </div>
+          ) : (
+            <>
+              <Button type="submit" className="mt-6" busy={load.isPending}>
+                Load preset
+              </Button>
+              <Button variant="ghost" className="mt-6" onClick={onClose}>
+                Cancel
+              </Button>
+            </>
+          )}
         </form>
+      )}
+      {!loadedInto && (
+        <div className="mt-3 flex flex-wrap items-center gap-2 border-t border-slate-700/15 pt-3 text-sm dark:border-slate-300/10">
+          <span>Or start a session of its own:</span>
+          <Button variant="secondary" busy={start.isPending} onClick={startSession}>
+            New session from this preset
+          </Button>
+          {start.isError && <span className="text-ember-600 dark:text-ember-400">{start.error.message}</span>}
+        </div>
       )}
       {load.isError && !loadedInto && (
         <div className="mt-3">

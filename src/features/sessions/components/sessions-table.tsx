@@ -3,6 +3,7 @@ import { Link } from 'react-router-dom';
 import type { SessionSummary } from '../../../../shared/api/responses';
 import { ACTION_REASONS } from '../../../../shared/access/roles';
 import { Button } from '../../../components/button';
+import { ConfirmAction } from '../../../components/confirm-action';
 import { DataTable, type Column } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
 
@@ -11,6 +12,10 @@ export interface SessionsTableProps {
   canEdit: boolean;
   onRename: (session: SessionSummary) => void;
   onArchive: (session: SessionSummary, archived: boolean) => void;
+  /** A copy of the session, "… (copy)"; the button shows only when given. */
+  onDuplicate?: (session: SessionSummary) => void;
+  /** The session being copied right now. */
+  duplicatingId?: string;
   busyId?: string;
   /** Who is in each session now, by session id. */
   presence?: Record<string, Array<{ id: string; displayName: string | null }>>;
@@ -19,7 +24,7 @@ export interface SessionsTableProps {
 const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
 /** The studio's sessions: searchable by name, sortable by name, last edit and editor. */
-export function SessionsTable({ sessions, canEdit, onRename, onArchive, busyId, presence = {} }: SessionsTableProps) {
+export function SessionsTable({ sessions, canEdit, onRename, onArchive, onDuplicate, duplicatingId, busyId, presence = {} }: SessionsTableProps) {
   const [query, setQuery] = useState('');
   const shown = useMemo(() => {
     const needle = query.trim().toLowerCase();
@@ -66,9 +71,27 @@ export function SessionsTable({ sessions, canEdit, onRename, onArchive, busyId, 
           <Button variant="secondary" disabledReason={reason} onClick={() => onRename(session)} aria-label={`Rename ${session.name}`}>
             Rename
           </Button>
-          <Button variant="ghost" disabledReason={reason} busy={busyId === session.id} onClick={() => onArchive(session, !session.archived)} aria-label={`${session.archived ? 'Restore' : 'Archive'} ${session.name}`}>
-            {session.archived ? 'Restore' : 'Archive'}
-          </Button>
+          {onDuplicate && (
+            <Button variant="secondary" disabledReason={reason} busy={duplicatingId === session.id} onClick={() => onDuplicate(session)} aria-label={`Duplicate ${session.name}`} title="A new session with a copy of this one's string">
+              Duplicate
+            </Button>
+          )}
+          {session.archived ? (
+            <Button variant="ghost" disabledReason={reason} busy={busyId === session.id} onClick={() => onArchive(session, false)} aria-label={`Restore ${session.name}`}>
+              Restore
+            </Button>
+          ) : (
+            <ConfirmAction
+              label="Archive"
+              ariaLabel={`Archive ${session.name}`}
+              question={`Archive ${session.name}? It leaves the studio's list; Restore brings it back.`}
+              confirmLabel="Yes, archive"
+              showQuestion
+              busy={busyId === session.id}
+              disabledReason={reason}
+              onConfirm={() => onArchive(session, true)}
+            />
+          )}
         </div>
       ),
     },
