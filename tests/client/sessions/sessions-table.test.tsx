@@ -74,6 +74,13 @@ describe('sessions table', () => {
       </MemoryRouter>,
     );
     fireEvent.click(screen.getByRole('button', { name: 'Archive Bell buoy drone' }));
+    // Asked first: nothing happens until confirmed, and cancelling withdraws it.
+    expect(onArchive).not.toHaveBeenCalled();
+    expect(screen.getByText("Archive Bell buoy drone? It leaves the studio's list; Restore brings it back.")).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Cancel' }));
+    expect(onArchive).not.toHaveBeenCalled();
+    fireEvent.click(screen.getByRole('button', { name: 'Archive Bell buoy drone' }));
+    fireEvent.click(screen.getByRole('button', { name: 'Yes, archive' }));
     expect(onArchive).toHaveBeenCalledWith(sessions[2], true);
   });
 });
