@@ -43,7 +43,7 @@ export function DataTable<Row>({ caption, rows, columns, rowKey, initialSort }: 
             {columns.map((column) => {
               const active = sort?.key === column.key;
               return (
-                <th key={column.key} scope="col" aria-sort={active ? sort?.direction : undefined} className={`px-4 py-2 font-semibold ${column.className ?? ''}`}>
+                <th key={column.key} scope="col" aria-sort={active ? sort?.direction : undefined} className={`px-3 py-2 font-semibold ${column.className ?? ''}`}>
                   {column.sortValue ? (
                     <button
                       type="button"
@@ -69,7 +69,7 @@ export function DataTable<Row>({ caption, rows, columns, rowKey, initialSort }: 
           {sorted.map((row) => (
             <tr key={rowKey(row)} className="border-t border-slate-700/10 hover:bg-brass-400/5 dark:border-slate-300/10">
               {columns.map((column) => (
-                <td key={column.key} className={`px-4 py-2 align-middle ${column.className ?? ''}`}>
+                <td key={column.key} className={`px-3 py-2 align-middle ${column.className ?? ''}`}>
                   {column.render(row)}
                 </td>
               ))}

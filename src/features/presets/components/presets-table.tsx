@@ -51,9 +51,15 @@ export function PresetsTable({ presets, canManage, canLoad, onAction }: PresetsT
       header: 'Preset',
       sortValue: (preset) => preset.name.toLowerCase(),
       render: (preset) => (
-        <div className="min-w-40">
-          <p className="font-semibold text-slate-900 dark:text-slate-100">{preset.name}</p>
-          {preset.description && <p className="line-clamp-1 max-w-xs text-xs text-slate-600 dark:text-slate-300">{preset.description}</p>}
+        <div className="min-w-40 max-w-64">
+          <p className="line-clamp-2 break-words font-semibold text-slate-900 dark:text-slate-100" title={preset.name}>
+            {preset.name}
+          </p>
+          {preset.description && (
+            <p className="line-clamp-1 max-w-xs text-xs text-slate-600 dark:text-slate-300" title={preset.description}>
+              {preset.description}
+            </p>
+          )}
         </div>
       ),
     },

@@ -47,8 +47,10 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
       header: 'Render',
       sortValue: (render) => render.name.toLowerCase(),
       render: (render) => (
-        <div className="min-w-32">
-          <p className="font-semibold text-slate-900 dark:text-slate-100">{render.name}</p>
+        <div className="min-w-32 max-w-56">
+          <p className="line-clamp-2 break-words font-semibold text-slate-900 dark:text-slate-100" title={render.name}>
+            {render.name}
+          </p>
           {render.kind === 'noteSet' && <p className={muted}>note set{render.fileCount !== null ? ` · ${render.fileCount} files` : ''}</p>}
         </div>
       ),
@@ -59,8 +61,8 @@ export function RendersTable({ renders, canExport, canDelete, onCancel, onDelete
       header: 'Source and settings',
       sortValue: (render) => render.source.name.toLowerCase(),
       render: (render) => (
-        <div className="min-w-48 max-w-72">
-          <p>
+        <div className="min-w-40 max-w-64">
+          <p className="line-clamp-2 break-words" title={render.source.name}>
             {render.source.name} <span className={muted}>({render.source.kind})</span>
           </p>
           <p className="text-xs">{outputSummary(render.output)}</p>
