@@ -110,7 +110,10 @@ describe('presets from the editor', () => {
     await dialog.getByRole('button', { name: 'Save preset' }).click();
     await lead.getByTestId('preset-outcome').filter({ hasText: `Saved “${SAVED}” to the library` }).waitFor({ timeout: 5000 });
     // The session now comes from the new preset: Update preset names it.
-    await controls.getByRole('button', { name: `Update preset “${SAVED}”` }).waitFor({ timeout: 5000 });
+    await controls.getByRole('button', { name: `Update preset “${SAVED}”` }).click();
+    // Nothing changed since the save: the version stays.
+    await lead.getByTestId('preset-outcome').filter({ hasText: `“${SAVED}” already sounds like this session: still version 1.` }).waitFor({ timeout: 5000 });
+    await shoot(lead, 'presets-after-save');
 
     // In the library, with the same patch as the session.
     await lead.goto(`/studios/${studioId}/presets`);

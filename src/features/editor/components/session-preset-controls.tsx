@@ -109,6 +109,7 @@ export function SessionPresetControls({ connection, studioId, sessionId, session
             variant="secondary"
             busy={update.isPending}
             disabledReason={presetReason}
+            aria-label={`Update preset “${sourcePreset.name}”`}
             title={`Writes this session's string to “${sourcePreset.name}” (version ${sourcePreset.version}); the version rises only if the sound changed`}
             onClick={() =>
               update.mutate(undefined, {
@@ -121,7 +122,7 @@ export function SessionPresetControls({ connection, studioId, sessionId, session
               })
             }
           >
-            Update preset “{sourcePreset.name}”
+            <span className="max-w-40 truncate">Update “{sourcePreset.name}”</span>
           </Button>
         )}
         <Button
