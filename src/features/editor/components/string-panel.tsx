@@ -53,7 +53,7 @@ function TextEntry({ label, value, hint, disabled, onCommit }: { label: string; 
         onChange={(event) => setText(event.target.value)}
         onBlur={commit}
         onKeyDown={(event) => event.key === 'Enter' && (event.currentTarget as HTMLInputElement).blur()}
-        className="w-28 rounded border border-slate-700/30 bg-white px-2 py-1 text-sm tabular-nums focus-visible:ring-2 focus-visible:ring-teal-400 disabled:opacity-60 dark:border-slate-300/20 dark:bg-slate-900"
+        className="w-36 rounded border border-slate-700/30 bg-white px-2 py-1 text-sm tabular-nums focus-visible:ring-2 focus-visible:ring-teal-400 disabled:opacity-60 dark:border-slate-300/20 dark:bg-slate-900"
       />
       {hint && !problem && (
         <p id={`${id}-hint`} className="max-w-40 text-xs text-slate-600 dark:text-slate-300">
@@ -143,14 +143,14 @@ export function StringPanel({ connection, patch, readOnly }: StringPanelProps) {
     <section aria-label="String" className="rounded-lg border border-slate-700/15 p-3 dark:border-slate-300/10">
       <h2 className="mb-2 text-sm font-semibold">String</h2>
       <div className="flex flex-wrap gap-3">
-        <label className="flex flex-col gap-0.5 text-xs font-semibold">
+        <label className="flex w-full min-w-0 flex-col gap-0.5 text-xs font-semibold">
           Material
           <select
             value={materialId}
             disabled={readOnly}
             title={material.source}
             onChange={(event) => redesign({ materialId: event.target.value as MaterialId })}
-            className={`${COMPACT_CONTROL_CLASS} text-sm font-normal`}
+            className={`${COMPACT_CONTROL_CLASS} w-full min-w-0 max-w-full text-sm font-normal`}
           >
             {(MATERIAL_CHOICES.includes(materialId) ? MATERIAL_CHOICES : [...MATERIAL_CHOICES, materialId]).map((id) => (
               <option key={id} value={id}>
