@@ -22,6 +22,7 @@ import { HandleFields } from '../../features/editor/components/handle-fields';
 import { NoteKeyboard } from '../../features/editor/components/note-keyboard';
 import { PluckTool } from '../../features/editor/components/pluck-tool';
 import { PreviewAudition } from '../../features/editor/components/preview-audition';
+import { PlausibilityNotice } from '../../features/editor/components/plausibility-notice';
 import { SessionPresetControls } from '../../features/editor/components/session-preset-controls';
 import { nextDisplayRangeM, StringCanvas } from '../../features/editor/components/string-canvas';
 import { StringMotion } from '../../features/editor/components/string-motion';
@@ -275,6 +276,9 @@ export default function SessionPage() {
           sourcePreset={session.data.sourcePreset ?? null}
           presets={presets.data ?? []}
         />
+      </div>
+      <div className="mb-2">
+        <PlausibilityNotice patch={patch} />
       </div>
       <div className="flex flex-col gap-2 @md:flex-row @md:items-start">
         <div className="flex min-w-0 flex-1 flex-col gap-2">
