@@ -26,3 +26,14 @@ describe('stepping the keyboard selection through the handles', () => {
     expect(sameSelection(null, { layer: 'pickup' })).toBe(false);
   });
 });
+
+describe('plucks and strikes as keyboard handles', () => {
+  it('puts them first, before the points and the pickup', () => {
+    const counts = { parts: 2, displacement: 0, velocity: 1 };
+    let at = stepSelection(null, counts, 1);
+    const seen = [at];
+    for (let i = 0; i < 4; i++) seen.push((at = stepSelection(at, counts, 1)));
+    expect(seen).toEqual([{ layer: 'part', index: 0 }, { layer: 'part', index: 1 }, { layer: 'velocity', index: 0 }, { layer: 'pickup' }, { layer: 'part', index: 0 }]);
+    expect(sameSelection({ layer: 'part', index: 0 }, { layer: 'displacement', index: 0 })).toBe(false);
+  });
+});

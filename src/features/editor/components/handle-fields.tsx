@@ -4,6 +4,8 @@ import { Button } from '../../../components/button';
 import type { CanvasSelection } from '../geometry/canvas-selection';
 import { NumberField } from './number-field';
 import { commitPatchNumbers, type SessionEdits } from './commit-patch-number';
+import { ConvertToFreePoints, PartFields } from './part-fields';
+import { partsMakeLayer } from '../../../../shared/patch/excitation-part';
 
 const LAYER_WORDS = { displacement: 'shape', velocity: 'strike layer' } as const;
 
@@ -17,7 +19,7 @@ export function HandleFields({ connection, patch, selection, readOnly, onDeleted
   if (!selection) {
     return (
       <section aria-label="Selected handle" className={frame}>
-        <p className="text-sm text-slate-600 dark:text-slate-300">Select a point or the pickup on the string (or press ] and [ with the canvas focused) to type its numbers.</p>
+        <p className="text-sm text-slate-600 dark:text-slate-300">Select a pluck, a point or the pickup on the string (or press ] and [ with the canvas focused) to type its numbers.</p>
       </section>
     );
   }
@@ -35,7 +37,26 @@ export function HandleFields({ connection, patch, selection, readOnly, onDeleted
       </section>
     );
   }
+  if (selection.layer === 'part') {
+    const part = patch.excitation.parts?.[selection.index];
+    if (!part) return null;
+    return (
+      <section aria-label="Selected handle" className={frame}>
+        <PartFields connection={connection} part={part} index={selection.index} readOnly={readOnly} onRemoved={onDeleted} />
+      </section>
+    );
+  }
   const { layer, index } = selection;
+  if (partsMakeLayer(patch.excitation.parts, layer)) {
+    return (
+      <section aria-label="Selected handle" className={frame}>
+        <p className="self-center text-sm">
+          The {LAYER_WORDS[layer]} is made by {layer === 'displacement' ? 'a pluck' : 'a strike'}: drag its handle, or convert it to free points to edit it point by point.
+        </p>
+        <ConvertToFreePoints connection={connection} readOnly={readOnly} />
+      </section>
+    );
+  }
   const points = layer === 'displacement' ? patch.excitation.displacementM : patch.excitation.velocityMPerS;
   const point = points?.[index + 1];
   if (!points || !point || index + 1 >= points.length - 1) return null;

@@ -10,6 +10,9 @@ import { sameSelection, type CanvasSelection } from '../geometry/canvas-selectio
 import { polylineFromStroke } from '../geometry/freehand';
 import { niceTicks } from '../geometry/nice-ticks';
 import { movePickup } from '../../../../shared/collab/pickup-position-edit';
+import { updateExcitationPart, type PartChanges } from '../../../../shared/collab/excitation-part-edits';
+import { layerMadeByPartsReason } from '../../../../shared/collab/point-edits';
+import { PART_LAYER, partsMakeLayer } from '../../../../shared/patch/excitation-part';
 
 export interface StringCanvasProps {
   connection: SessionConnection;
@@ -84,7 +87,24 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
   }, [highlightMode, lengthM, peakM, scale]);
 
   const edit = (change: Parameters<SessionConnection['edit']>[0]) => !readOnly && connection.edit(change);
-  const draggingBy = new Map(peers.filter((peer) => peer.dragging?.layer === 'displacement').map((peer) => [peer.dragging!.index + 1, peer]));
+  const parts = patch.excitation.parts ?? [];
+  // A layer made by plucks or strikes moves with their handles; its points are shown, not dragged.
+  const madeByParts = { displacement: partsMakeLayer(parts, 'displacement'), velocity: partsMakeLayer(parts, 'velocity') };
+  const refusePointEdit = (layer: 'displacement' | 'velocity') => {
+    let reason: string | null = null;
+    connection.edit((doc) => void (reason = layerMadeByPartsReason(doc, layer)));
+    if (reason) onStrokeProblem(`${(reason as string)[0].toUpperCase()}${(reason as string).slice(1)}.`);
+  };
+  const movePart = (index: number, changes: PartChanges, pointerXM?: number) => {
+    if (pointerXM !== undefined) connection.setPresence({ pointerXM: Math.min(lengthM, Math.max(0, pointerXM)) });
+    edit((doc, origin) => void updateExcitationPart(doc, index, changes, origin));
+  };
+  const partY = (index: number) => {
+    const part = parts[index];
+    return part.kind === 'pluck' ? scale.yToPx(part.heightM) : velocityToPx(part.velocityMPerS);
+  };
+  const draggingBy = new Map(peers.filter((peer) => peer.dragging?.layer === 'displacement' && !madeByParts.displacement).map((peer) => [peer.dragging!.index + 1, peer]));
+  const partDraggedBy = (index: number) => peers.find((peer) => madeByParts[PART_LAYER[parts[index].kind]] && peer.dragging?.layer === PART_LAYER[parts[index].kind] && peer.dragging.index === index);
   const drawing = tool === 'draw' && !readOnly;
   const drawLayer = activeLayer === 'velocity' && strike ? 'velocity' : 'displacement';
   const strokeRef = useRef<PixelPoint[] | null>(null);
@@ -105,11 +125,13 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
     const drawn = polylineFromStroke(stroke, mapping);
     if (!drawn.ok) return onStrokeProblem(`The stroke was not used: ${drawn.reason}.`);
     onStrokeProblem(null);
+    if (madeByParts[drawLayer]) return refusePointEdit(drawLayer);
     onSelect(null);
     edit((doc, origin) => void replaceLayerPoints(doc, drawLayer, drawn.points, origin));
   };
 
   return (
+    <>
     <Stage
       width={widthPx}
       height={heightPx}
@@ -156,7 +178,9 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           onClick={(event) => {
             const pointer = event.target.getStage()?.getPointerPosition();
             if (!pointer) return;
-            if (activeLayer === 'velocity' && strike) edit((doc, origin) => void insertPoint(doc, 'velocity', scale.pxToX(pointer.x), pxToVelocity(pointer.y), origin));
+            const layer = activeLayer === 'velocity' && strike ? 'velocity' : 'displacement';
+            if (madeByParts[layer]) return refusePointEdit(layer);
+            if (layer === 'velocity') edit((doc, origin) => void insertPoint(doc, 'velocity', scale.pxToX(pointer.x), pxToVelocity(pointer.y), origin));
             else edit((doc, origin) => void insertPoint(doc, 'displacement', scale.pxToX(pointer.x), scale.pxToY(pointer.y), origin));
           }}
         />
@@ -169,12 +193,12 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
               <Circle
                 x={scale.xToPx(xM)}
                 y={scale.yToPx(yM)}
-                radius={sameSelection(selected, { layer: 'displacement', index: docIndex }) ? 8 : 6}
+                radius={madeByParts.displacement ? 3 : sameSelection(selected, { layer: 'displacement', index: docIndex }) ? 8 : 6}
                 fill={colours.point}
                 stroke={sameSelection(selected, { layer: 'displacement', index: docIndex }) ? colours.pickup : undefined}
                 strokeWidth={2}
-                draggable={!readOnly}
-                listening={!drawing}
+                draggable={!readOnly && !madeByParts.displacement}
+                listening={!drawing && !madeByParts.displacement}
                 name={`point-${docIndex}`}
                 onMouseDown={() => onSelect({ layer: 'displacement', index: docIndex })}
                 onDblClick={() => edit((doc, origin) => void deletePoint(doc, 'displacement', docIndex, origin))}
@@ -203,12 +227,12 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
                 key={`v-${docIndex}`}
                 x={scale.xToPx(xM)}
                 y={velocityToPx(vMPerS)}
-                radius={sameSelection(selected, { layer: 'velocity', index: docIndex }) ? 7 : 5}
+                radius={madeByParts.velocity ? 3 : sameSelection(selected, { layer: 'velocity', index: docIndex }) ? 7 : 5}
                 fill={colours.pickup}
                 stroke={sameSelection(selected, { layer: 'velocity', index: docIndex }) ? colours.point : undefined}
                 strokeWidth={2}
-                draggable={!readOnly}
-                listening={!drawing}
+                draggable={!readOnly && !madeByParts.velocity}
+                listening={!drawing && !madeByParts.velocity}
                 name={`strike-point-${docIndex}`}
                 onMouseDown={() => onSelect({ layer: 'velocity', index: docIndex })}
                 onDragStart={() => {
@@ -225,6 +249,70 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
             ))}
           </>
         )}
+        {/* Plucks and strikes: drag the ring along and up or down, its contact's edges sideways. */}
+        {parts.map((part, index) => {
+          if (part.kind === 'strike' && !showStrike) return null;
+          const colour = part.kind === 'pluck' ? colours.string : colours.pickup;
+          const isSelected = sameSelection(selected, { layer: 'part', index });
+          const centreX = scale.xToPx(part.positionM);
+          const centreY = partY(index);
+          const beginDrag = () => {
+            onSelect({ layer: 'part', index });
+            connection.beginGesture();
+            // On a layer made by plucks or strikes, the dragged index is the part's (its points are not dragged).
+            connection.setPresence({ dragging: { layer: PART_LAYER[part.kind], index } });
+          };
+          const endDrag = () => {
+            connection.endGesture();
+            connection.setPresence({ dragging: null });
+          };
+          return (
+            <Group key={`part-${index}`}>
+              <Line points={[scale.xToPx(part.positionM - part.widthM / 2), centreY, scale.xToPx(part.positionM + part.widthM / 2), centreY]} stroke={colour} strokeWidth={3} opacity={0.5} listening={false} />
+              {([-1, 1] as const).map((side) => (
+                <Rect
+                  key={side}
+                  name={`part-${index}-edge-${side < 0 ? 'left' : 'right'}`}
+                  x={scale.xToPx(part.positionM + (side * part.widthM) / 2) - 3}
+                  y={centreY - 9}
+                  width={6}
+                  height={18}
+                  fill={colour}
+                  cornerRadius={2}
+                  draggable={!readOnly}
+                  listening={!drawing}
+                  dragBoundFunc={(position) => ({ x: position.x, y: centreY - 9 })}
+                  onDragStart={beginDrag}
+                  onDragMove={(event) => {
+                    const edgeM = scale.pxToX(event.target.x() + 3);
+                    movePart(index, { widthM: 2 * Math.abs(edgeM - part.positionM) }, edgeM);
+                  }}
+                  onDragEnd={endDrag}
+                />
+              ))}
+              <Group
+                x={centreX}
+                y={centreY}
+                name={`part-${index}`}
+                draggable={!readOnly}
+                listening={!drawing}
+                onMouseDown={() => onSelect({ layer: 'part', index })}
+                onDragStart={beginDrag}
+                onDragMove={(event) => {
+                  const xM = scale.pxToX(event.target.x());
+                  const y = event.target.y();
+                  movePart(index, part.kind === 'pluck' ? { positionM: xM, heightM: scale.pxToY(y) } : { positionM: xM, velocityMPerS: pxToVelocity(y) }, xM);
+                }}
+                onDragEnd={endDrag}
+              >
+                {partDraggedBy(index) && <Circle radius={16} stroke={partDraggedBy(index)!.colour} strokeWidth={2} />}
+                <Circle radius={isSelected ? 12 : 10} stroke={isSelected ? colours.text : colour} strokeWidth={isSelected ? 3 : 2.5} fill={dark ? '#171b22' : '#ffffff'} opacity={0.95} />
+                <Circle radius={3.5} fill={colour} />
+                <Text x={-40} y={-28} width={80} align="center" text={part.kind === 'pluck' ? `pluck ${index + 1}` : `strike ${index + 1}`} fontSize={10} fill={colour} />
+              </Group>
+            </Group>
+          );
+        })}
         <Group
           x={scale.xToPx(patch.pickup.positionM)}
           y={midPx}
@@ -257,6 +345,26 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           ))}
       </Layer>
     </Stage>
+    {parts.length > 0 && (
+      <ul className="sr-only" aria-label="Plucks and strikes">
+        {parts.map((part, index) => (
+          <li
+            key={index}
+            data-testid="excitation-part"
+            data-kind={part.kind}
+            data-position-mm={(part.positionM * 1000).toFixed(2)}
+            data-width-mm={(part.widthM * 1000).toFixed(2)}
+            data-x-px={scale.xToPx(part.positionM).toFixed(1)}
+            data-y-px={partY(index).toFixed(1)}
+          >
+            {part.kind === 'pluck'
+              ? `Pluck ${index + 1}: ${(part.positionM * 1000).toFixed(1)} mm along, ${(part.heightM * 1000).toFixed(2)} mm high, ${(part.widthM * 1000).toFixed(1)} mm ${part.contact} contact`
+              : `Strike ${index + 1}: ${(part.positionM * 1000).toFixed(1)} mm along, ${part.velocityMPerS.toFixed(2)} m/s, ${(part.widthM * 1000).toFixed(1)} mm hammer`}
+          </li>
+        ))}
+      </ul>
+    )}
+    </>
   );
 }
 
