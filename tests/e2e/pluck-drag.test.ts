@@ -148,6 +148,22 @@ describe('the pluck as an object you drag', () => {
     await expect.poll(async () => (await pluckHandle(lead)).positionMm, { timeout: 10_000 }).toBe(251);
     await designer.keyboard.press('Control+z');
     await expect.poll(async () => (await pluckHandle(lead)).positionMm, { timeout: 10_000 }).toBe(250);
+
+    // The contact's right grip dragged 20 px outward widens the contact by twice that, the pluck staying where it is.
+    const item = designer.getByTestId('excitation-part').first();
+    const gripX = canvas.x + Number(await item.getAttribute('data-right-grip-x-px'));
+    const gripY = (await pluckHandle(designer)).y;
+    await designer.mouse.move(gripX, gripY);
+    await designer.mouse.down();
+    for (let step = 1; step <= 5; step++) await designer.mouse.move(gripX + 4 * step, gripY);
+    await designer.mouse.up();
+    const widerM = 0.012 + (2 * 20 * start.string.lengthM) / (canvas.width - 2 * MARGIN_PX);
+    const widened = await storedPatchWhen(designer, sessionId, (patch) => Math.abs((patch.excitation.parts?.[0]?.widthM ?? 0) - widerM) < 2e-4);
+    expect(widened.excitation.parts![0].widthM).toBeCloseTo(widerM, 3);
+    expect(widened.excitation.parts![0].positionM).toBe(0.25);
+    expect(apexOf(widened)).toEqual([0.25, 0.004]);
+    await designer.getByRole('button', { name: 'Undo', exact: true }).click();
+    expect((await storedPatchWhen(designer, sessionId, (patch) => patch.excitation.parts?.[0]?.widthM === 0.012)).excitation.parts).toEqual([pluck]);
   }, 120_000);
 
   // The session still holds the pluck the first test laid down (and put back with undo).

@@ -38,6 +38,8 @@ export interface StringCanvasProps {
 }
 
 export const CANVAS_MARGIN_PX = 36;
+/** How far outside a contact's edge its width grip is drawn, so a narrow contact's grips stay clear of the handle's ring. */
+const EDGE_GRIP_PX = 16;
 const MARGIN_PX = CANVAS_MARGIN_PX;
 
 /**
@@ -268,12 +270,14 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           };
           return (
             <Group key={`part-${index}`}>
-              <Line points={[scale.xToPx(part.positionM - part.widthM / 2), centreY, scale.xToPx(part.positionM + part.widthM / 2), centreY]} stroke={colour} strokeWidth={3} opacity={0.5} listening={false} />
+              {/* The contact (a thick bar) and, a little outside each of its edges so they never hide under the ring, the grips that set its width. */}
+              <Line points={[scale.xToPx(part.positionM - part.widthM / 2) - EDGE_GRIP_PX, centreY, scale.xToPx(part.positionM + part.widthM / 2) + EDGE_GRIP_PX, centreY]} stroke={colour} strokeWidth={1} dash={[2, 2]} listening={false} />
+              <Line points={[scale.xToPx(part.positionM - part.widthM / 2), centreY, scale.xToPx(part.positionM + part.widthM / 2), centreY]} stroke={colour} strokeWidth={4} opacity={0.6} listening={false} />
               {([-1, 1] as const).map((side) => (
                 <Rect
                   key={side}
                   name={`part-${index}-edge-${side < 0 ? 'left' : 'right'}`}
-                  x={scale.xToPx(part.positionM + (side * part.widthM) / 2) - 3}
+                  x={scale.xToPx(part.positionM + (side * part.widthM) / 2) + side * EDGE_GRIP_PX - 3}
                   y={centreY - 9}
                   width={6}
                   height={18}
@@ -284,8 +288,8 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
                   dragBoundFunc={(position) => ({ x: position.x, y: centreY - 9 })}
                   onDragStart={beginDrag}
                   onDragMove={(event) => {
-                    const edgeM = scale.pxToX(event.target.x() + 3);
-                    movePart(index, { widthM: 2 * Math.abs(edgeM - part.positionM) }, edgeM);
+                    const edgeM = scale.pxToX(event.target.x() + 3 - side * EDGE_GRIP_PX);
+                    movePart(index, { widthM: 2 * Math.max(0, side * (edgeM - part.positionM)) }, edgeM);
                   }}
                   onDragEnd={endDrag}
                 />
@@ -356,6 +360,7 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
             data-width-mm={(part.widthM * 1000).toFixed(2)}
             data-x-px={scale.xToPx(part.positionM).toFixed(1)}
             data-y-px={partY(index).toFixed(1)}
+            data-right-grip-x-px={(scale.xToPx(part.positionM + part.widthM / 2) + EDGE_GRIP_PX).toFixed(1)}
           >
             {part.kind === 'pluck'
               ? `Pluck ${index + 1}: ${(part.positionM * 1000).toFixed(1)} mm along, ${(part.heightM * 1000).toFixed(2)} mm high, ${(part.widthM * 1000).toFixed(1)} mm ${part.contact} contact`
