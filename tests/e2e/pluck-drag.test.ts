@@ -167,12 +167,33 @@ describe('the pluck as an object you drag', () => {
   }, 120_000);
 
   // The session still holds the pluck the first test laid down (and put back with undo).
-  it('shows the workbench with the pluck handle at 1440×900 and 1280×720, light and dark, for review', async () => {
+  it('adds a strike beside the pluck and drags it up; shows the workbench with both handles at 1440×900 and 1280×720, light and dark, for review', async () => {
     const page = await signedInPage('designer');
     await page.getByRole('link', { name: SESSION }).click();
     await page.waitForURL(/\/sessions\//);
     await page.getByTestId('result-figures').waitFor({ timeout: 20_000 });
     await page.getByTestId('excitation-part').first().waitFor({ state: 'attached', timeout: 10_000 });
+
+    // A strike added beside the pluck (a pluck plus a strike), then dragged up 30 px: its velocity rises and the
+    // handle stays under the pointer (the strike layer's scale holds still during the drag).
+    const sessionId = page.url().split('/sessions/')[1];
+    const tool = page.getByRole('region', { name: 'Pluck tool' });
+    await tool.getByLabel('Position').fill('450');
+    await tool.getByLabel('Position').press('Enter');
+    await tool.getByRole('button', { name: 'Add strike' }).click();
+    const strikeItem = page.locator('[data-testid="excitation-part"][data-kind="strike"]');
+    await strikeItem.waitFor({ state: 'attached', timeout: 10_000 });
+    const canvas = (await page.locator('canvas').first().boundingBox())!;
+    const from = { x: canvas.x + Number(await strikeItem.getAttribute('data-x-px')), y: canvas.y + Number(await strikeItem.getAttribute('data-y-px')) };
+    await page.mouse.move(from.x, from.y);
+    await page.mouse.down();
+    for (let step = 1; step <= 6; step++) await page.mouse.move(from.x, from.y - 5 * step);
+    await page.mouse.up();
+    const struck = await storedPatchWhen(page, sessionId, (patch) => (patch.excitation.parts?.[1] as { velocityMPerS?: number } | undefined)?.velocityMPerS !== 0.5);
+    expect(struck.excitation.parts!.map((part) => part.kind)).toEqual(['pluck', 'strike']);
+    expect((struck.excitation.parts![1] as { velocityMPerS: number }).velocityMPerS).toBeGreaterThan(0.5);
+    expect(Math.abs(canvas.y + Number(await strikeItem.getAttribute('data-y-px')) - (from.y - 30))).toBeLessThan(1.5);
+    expect(struck.excitation.velocityMPerS!.length).toBeGreaterThan(3);
     for (const [width, height] of [
       [1440, 900],
       [1280, 720],

@@ -71,7 +71,10 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
   const flat = points.flatMap(([x, y]) => [scale.xToPx(x), scale.yToPx(y)]);
   // The strike layer (initial velocity) has its own vertical scale, drawn over the same axis.
   const strike = patch.excitation.velocityMPerS;
-  const velocityRangeMPerS = Math.max(0.1, ...(strike ?? []).map(([, v]) => Math.abs(v))) * 1.6;
+  // Held still while someone drags (as the displacement's range is), so a strike handle stays under the pointer.
+  const velocityRange = useRef<number | null>(null);
+  velocityRange.current = nextVelocityRangeMPerS(velocityRange.current, Math.max(0, ...(strike ?? []).map(([, v]) => Math.abs(v))));
+  const velocityRangeMPerS = velocityRange.current;
   const halfHeightPx = heightPx / 2 - MARGIN_PX;
   const velocityToPx = (vMPerS: number) => heightPx / 2 - (vMPerS / velocityRangeMPerS) * halfHeightPx;
   const pxToVelocity = (px: number) => ((heightPx / 2 - px) / halfHeightPx) * velocityRangeMPerS;
@@ -382,4 +385,11 @@ export function nextDisplayRangeM(currentM: number | null, peakM: number): numbe
   const wanted = Math.max(1e-3, peakM) * 1.6;
   if (currentM === null || peakM > currentM * 0.95 || peakM < currentM / 3) return wanted;
   return currentM;
+}
+
+/** The strike layer's vertical scale, kept by the same rule as `nextDisplayRangeM` (at least ±0.16 m/s). */
+export function nextVelocityRangeMPerS(currentMPerS: number | null, peakMPerS: number): number {
+  const wanted = Math.max(0.1, peakMPerS) * 1.6;
+  if (currentMPerS === null || peakMPerS > currentMPerS * 0.95 || wanted < currentMPerS / 3) return wanted;
+  return currentMPerS;
 }
