@@ -51,3 +51,8 @@ export const PART_LAYER = { pluck: 'displacement', strike: 'velocity' } as const
 export function partsMakeLayer(parts: readonly ExcitationPart[] | undefined, layer: 'displacement' | 'velocity'): boolean {
   return (parts ?? []).some((part) => PART_LAYER[part.kind] === layer);
 }
+
+/** A part's number among those of its kind, from 1 (the second strike is "strike 2" even after a pluck). */
+export function partOrdinal(parts: readonly ExcitationPart[], index: number): number {
+  return parts.slice(0, index + 1).filter((part) => part.kind === parts[index].kind).length;
+}

@@ -7,7 +7,7 @@ import { pluckShape } from '../../../shared/collab/pluck-shape';
 import { insertPoint, movePoint, MIN_POINT_GAP_FRACTION, replaceLayerPoints, setLengthM } from '../../../shared/collab/point-edits';
 import { docSharedTypes } from '../../../shared/collab/doc-layout';
 import { sineProjection } from '../../../shared/engine/sine-projection';
-import type { ExcitationPart, PluckPart, StrikePart } from '../../../shared/patch/excitation-part';
+import { partOrdinal, type ExcitationPart, type PluckPart, type StrikePart } from '../../../shared/patch/excitation-part';
 import type { Polyline } from '../../../shared/patch/patch-schema';
 import { validatePatch } from '../../../shared/patch/validate-patch';
 import { testPatch, validPatch } from '../../support/patches';
@@ -219,5 +219,12 @@ describe('the parts in the shared document', () => {
     const result = validatedPatchFromDoc(bad);
     expect(result.ok).toBe(false);
     if (!result.ok) expect(result.issues.map((issue) => issue.field)).toEqual(['excitation.parts[0].widthM']);
+  });
+});
+
+describe('numbering the parts', () => {
+  it('counts each kind on its own: a pluck, a strike and a second pluck are pluck 1, strike 1 and pluck 2', () => {
+    const parts: ExcitationPart[] = [fingertip, strike, pick];
+    expect(parts.map((_, index) => partOrdinal(parts, index))).toEqual([1, 1, 2]);
   });
 });

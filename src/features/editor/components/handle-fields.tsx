@@ -5,7 +5,7 @@ import type { CanvasSelection } from '../geometry/canvas-selection';
 import { NumberField } from './number-field';
 import { commitPatchNumbers, type SessionEdits } from './commit-patch-number';
 import { ConvertToFreePoints, PartFields } from './part-fields';
-import { partsMakeLayer } from '../../../../shared/patch/excitation-part';
+import { partOrdinal, partsMakeLayer } from '../../../../shared/patch/excitation-part';
 
 const LAYER_WORDS = { displacement: 'shape', velocity: 'strike layer' } as const;
 
@@ -42,7 +42,7 @@ export function HandleFields({ connection, patch, selection, readOnly, onDeleted
     if (!part) return null;
     return (
       <section aria-label="Selected handle" className={frame}>
-        <PartFields connection={connection} part={part} index={selection.index} readOnly={readOnly} onRemoved={onDeleted} />
+        <PartFields connection={connection} part={part} index={selection.index} ordinal={partOrdinal(patch.excitation.parts ?? [], selection.index)} readOnly={readOnly} onRemoved={onDeleted} />
       </section>
     );
   }

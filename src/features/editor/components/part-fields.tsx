@@ -30,11 +30,11 @@ export function ConvertToFreePoints({ connection, readOnly }: { connection: Sess
  * The selected pluck or strike as typed numbers: position, height (or velocity), contact width and,
  * for a pluck, what touches the string. A value outside the string is held at the nearest one that fits.
  */
-export function PartFields({ connection, part, index, readOnly, onRemoved }: { connection: SessionEdits; part: ExcitationPart; index: number; readOnly: boolean; onRemoved: () => void }) {
+export function PartFields({ connection, part, index, ordinal, readOnly, onRemoved }: { connection: SessionEdits; part: ExcitationPart; index: number; ordinal: number; readOnly: boolean; onRemoved: () => void }) {
   return (
     <>
       <h2 className="self-center text-sm font-semibold">
-        {part.kind === 'pluck' ? 'Pluck' : 'Strike'} {index + 1}
+        {part.kind === 'pluck' ? 'Pluck' : 'Strike'} {ordinal}
       </h2>
       <NumberField label="Position" unit="mm" value={part.positionM * 1000} disabled={readOnly} onCommit={(mm) => editPart(connection, index, { positionM: mm / 1000 })} />
       {part.kind === 'pluck' ? (

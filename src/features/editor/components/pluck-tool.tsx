@@ -6,6 +6,7 @@ import { Button } from '../../../components/button';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 import type { SessionConnection } from '../../../lib/live-session/session-connection';
 import { NumberField } from './number-field';
+import { ConvertToFreePoints } from './part-fields';
 
 const CONTACT_WORDS = { fingertip: 'Fingertip', pick: 'Pick' } as const;
 
@@ -66,6 +67,7 @@ export function PluckTool({ connection, patch, readOnly }: { connection: Session
         >
           Add strike
         </Button>
+        {(patch.excitation.parts?.length ?? 0) > 0 && <ConvertToFreePoints connection={connection} readOnly={readOnly} />}
       </div>
       {problem && (
         <p role="alert" className="mt-2 text-sm text-ember-600 dark:text-ember-400">

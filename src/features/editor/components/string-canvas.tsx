@@ -12,7 +12,7 @@ import { niceTicks } from '../geometry/nice-ticks';
 import { movePickup } from '../../../../shared/collab/pickup-position-edit';
 import { updateExcitationPart, type PartChanges } from '../../../../shared/collab/excitation-part-edits';
 import { layerMadeByPartsReason } from '../../../../shared/collab/point-edits';
-import { PART_LAYER, partsMakeLayer } from '../../../../shared/patch/excitation-part';
+import { PART_LAYER, partOrdinal, partsMakeLayer } from '../../../../shared/patch/excitation-part';
 
 export interface StringCanvasProps {
   connection: SessionConnection;
@@ -315,7 +315,7 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
                 {partDraggedBy(index) && <Circle radius={16} stroke={partDraggedBy(index)!.colour} strokeWidth={2} />}
                 <Circle radius={isSelected ? 12 : 10} stroke={isSelected ? colours.text : colour} strokeWidth={isSelected ? 3 : 2.5} fill={dark ? '#171b22' : '#ffffff'} opacity={0.95} />
                 <Circle radius={3.5} fill={colour} />
-                <Text x={-40} y={-28} width={80} align="center" text={part.kind === 'pluck' ? `pluck ${index + 1}` : `strike ${index + 1}`} fontSize={10} fill={colour} />
+                <Text x={-40} y={-28} width={80} align="center" text={`${part.kind} ${partOrdinal(parts, index)}`} fontSize={10} fill={colour} />
               </Group>
             </Group>
           );
@@ -366,8 +366,8 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
             data-right-grip-x-px={(scale.xToPx(part.positionM + part.widthM / 2) + EDGE_GRIP_PX).toFixed(1)}
           >
             {part.kind === 'pluck'
-              ? `Pluck ${index + 1}: ${(part.positionM * 1000).toFixed(1)} mm along, ${(part.heightM * 1000).toFixed(2)} mm high, ${(part.widthM * 1000).toFixed(1)} mm ${part.contact} contact`
-              : `Strike ${index + 1}: ${(part.positionM * 1000).toFixed(1)} mm along, ${part.velocityMPerS.toFixed(2)} m/s, ${(part.widthM * 1000).toFixed(1)} mm hammer`}
+              ? `Pluck ${partOrdinal(parts, index)}: ${(part.positionM * 1000).toFixed(1)} mm along, ${(part.heightM * 1000).toFixed(2)} mm high, ${(part.widthM * 1000).toFixed(1)} mm ${part.contact} contact`
+              : `Strike ${partOrdinal(parts, index)}: ${(part.positionM * 1000).toFixed(1)} mm along, ${part.velocityMPerS.toFixed(2)} m/s, ${(part.widthM * 1000).toFixed(1)} mm hammer`}
           </li>
         ))}
       </ul>
