@@ -5,6 +5,9 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { Role } from '../../shared/access/roles';
 import { validatePatch } from '../../shared/patch/validate-patch';
 import type { Patch } from '../../shared/patch/patch-schema';
+import type { PluckPart } from '../../shared/patch/excitation-part';
+import { polylinesFromParts } from '../../shared/collab/excitation-polyline';
+import { assert } from '../../shared/assert';
 import { hashPassword } from '../auth/password-hash';
 import { Membership } from '../db/entities/membership';
 import { Preset } from '../db/entities/preset';
@@ -89,17 +92,27 @@ export async function seedDemo(dataSource: DataSource, passwordHashCost: number)
     }
     const [lead, designer] = users;
     const saved = await addFactoryPresets(manager, studio.id, lead.id, presets);
-    const sessions: Array<[string, string, User]> = [
-      ['Lighthouse stair climb', 'lantern-room-harp.json', designer],
-      ['Storm-surge chase pulse', 'breakwater-bass.json', lead],
+    // Each demo session starts from a preset with its pluck laid down as a pluck (a handle to drag),
+    // near where the preset plucks: invented demo data.
+    const sessions: Array<[string, string, User, PluckPart]> = [
+      ['Lighthouse stair climb', 'lantern-room-harp.json', designer, { kind: 'pluck', positionM: 0.25, heightM: 0.004, widthM: 0.003, contact: 'fingertip' }],
+      ['Storm-surge chase pulse', 'breakwater-bass.json', lead, { kind: 'pluck', positionM: 0.16, heightM: 0.004, widthM: 0.015, contact: 'fingertip' }],
     ];
-    for (const [name, file, author] of sessions) {
+    for (const [name, file, author, pluck] of sessions) {
       const preset = saved.get(file) ?? [...saved.values()][0];
+      const patch = withPluck({ ...structuredClone(preset.patch), name }, pluck);
       await manager.save(
         Session,
-        manager.create(Session, { studioId: studio.id, name, patch: { ...structuredClone(preset.patch), name }, createdById: author.id, updatedById: author.id, archived: false, docState: null, sourcePresetId: preset.id }),
+        manager.create(Session, { studioId: studio.id, name, patch, createdById: author.id, updatedById: author.id, archived: false, docState: null, sourcePresetId: preset.id }),
       );
     }
   });
   return true;
+}
+
+/** The patch with its displacement made by one pluck (kept as `excitation.parts`, the polyline regenerated from it). */
+function withPluck(patch: Patch, pluck: PluckPart): Patch {
+  const made = polylinesFromParts(patch.string.lengthM, [pluck]);
+  assert(made.ok && made.displacement !== null, `demo pluck does not fit: ${made.ok ? 'no displacement' : made.reason}`);
+  return { ...patch, excitation: { ...patch.excitation, parts: [pluck], displacementM: [[0, 0], ...made.displacement, [patch.string.lengthM, 0]] } };
 }

@@ -5,6 +5,7 @@ import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { createDataSource, MIGRATIONS, openDatabase } from '../../server/db/data-source';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, readFactoryPresets, seedDemo } from '../../server/seed/demo-seed';
+import { validatePatch } from '../../shared/patch/validate-patch';
 import { rowCount, startTestServer } from '../support/test-server';
 
 const freshPath = () => join(mkdtempSync(join(tmpdir(), 'tautline-db-')), 'nested', 'tautline.sqlite');
@@ -49,6 +50,15 @@ describe('demo seed', () => {
       expect(await rowCount(server.dataSource, 'presets')).toBe(readFactoryPresets().length);
       const roles = await server.dataSource.query(`SELECT role FROM memberships ORDER BY role`);
       expect(roles.map((row: { role: string }) => row.role)).toEqual(['designer', 'lead', 'listener', 'producer']);
+      // Each demo session's shape is a pluck with a handle: one part, and the polyline it makes, valid.
+      for (const row of await server.dataSource.query(`SELECT patch FROM sessions`)) {
+        const result = validatePatch(JSON.parse(row.patch));
+        expect(result.ok).toBe(true);
+        const patch = result.ok ? result.value : null;
+        expect(patch?.excitation.parts).toEqual([expect.objectContaining({ kind: 'pluck', contact: 'fingertip' })]);
+        const apex = patch!.excitation.displacementM.reduce((best, point) => (point[1] > best[1] ? point : best));
+        expect(apex[0]).toBeCloseTo(patch!.excitation.parts![0].positionM, 9);
+      }
 
       expect(await seedDemo(server.dataSource, 10)).toBe(false);
       expect(await rowCount(server.dataSource, 'users')).toBe(4);
