@@ -1,5 +1,6 @@
 import * as Y from 'yjs';
 import { LIMITS } from '../limits';
+import { plainPartIssue } from '../patch/part-issue-words';
 import { excitationPartSchema, excitationPartsSchema, partsMakeLayer, type ExcitationPart } from '../patch/excitation-part';
 import type { Metres } from '../units';
 import { polylinesFromParts, type InteriorPoints } from './excitation-polyline';
@@ -49,11 +50,18 @@ function layersFor(doc: Y.Doc, before: readonly ExcitationPart[], next: readonly
   };
 }
 
+/** "pluck 2", "strike 1": a part named by its kind and its number within that kind. */
+function partName(parts: readonly unknown[], index: number): string {
+  const kind = (parts[index] as { kind?: unknown } | undefined)?.kind;
+  const named = kind === 'strike' ? 'strike' : 'pluck';
+  const ordinal = parts.slice(0, index + 1).filter((part) => ((part as { kind?: unknown })?.kind === 'strike' ? 'strike' : 'pluck') === named).length;
+  return `${named} ${ordinal}`;
+}
+
 function checkedParts(parts: readonly unknown[]): { ok: true; parts: ExcitationPart[] } | { ok: false; reason: string } {
   const parsed = excitationPartsSchema.safeParse(parts);
   if (parsed.success) return { ok: true, parts: parsed.data };
-  const issue = parsed.error.issues[0];
-  return { ok: false, reason: `${issue.path.length > 0 ? `${issue.path.map((step) => (typeof step === 'number' ? step + 1 : String(step))).join(' ')} ` : ''}${issue.message}` };
+  return { ok: false, reason: plainPartIssue(parsed.error.issues[0], (index) => partName(parts, index)) };
 }
 
 /** Replaces every part (a pluck laid down, a preset's parts) and the polylines they make, in one transaction. */
@@ -120,7 +128,7 @@ export function updateExcitationPart(doc: Y.Doc, index: number, changes: PartCha
     merged.positionM = clamp(merged.positionM as number, (merged.widthM as number) / 2 + gapM, lengthM - (merged.widthM as number) / 2 - gapM);
   }
   const parsed = excitationPartSchema.safeParse(merged);
-  if (!parsed.success) return { ok: false, reason: `${parsed.error.issues[0].path.join(' ') || 'the part'} ${parsed.error.issues[0].message}` };
+  if (!parsed.success) return { ok: false, reason: plainPartIssue(parsed.error.issues[0]) };
   const next = before.map((part, at) => (at === index ? parsed.data : part));
   const layers = layersFor(doc, before, next);
   if (!layers.ok) return layers;

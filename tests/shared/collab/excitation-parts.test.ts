@@ -169,7 +169,7 @@ describe('the parts in the shared document', () => {
     const doc = docWith([fingertip]);
     const before = patchFromDoc(doc);
     expect(updateExcitationPart(doc, 0, { heightM: Number.NaN }).ok).toBe(false);
-    expect(updateExcitationPart(doc, 0, { contact: 'spoon' })).toEqual({ ok: false, reason: 'contact must be one of fingertip, pick' });
+    expect(updateExcitationPart(doc, 0, { contact: 'spoon' })).toEqual({ ok: false, reason: 'Contact must be one of fingertip, pick' });
     expect(updateExcitationPart(doc, 3, { heightM: 0.001 })).toEqual({ ok: false, reason: 'there is no pluck or strike 4' });
     expect(patchFromDoc(doc)).toEqual(before);
   });
