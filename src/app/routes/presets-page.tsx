@@ -8,12 +8,9 @@ import { Notice } from '../../components/notice';
 import { PageHeader } from '../../components/page-header';
 import { useMe } from '../../lib/queries/get-me';
 import { usePresets, type PresetSort } from '../../features/presets/api/get-presets';
-import { DeletePresetPanel } from '../../features/presets/components/delete-preset-panel';
-import { EditTagsPanel } from '../../features/presets/components/edit-tags-panel';
-import { LoadIntoSessionPanel } from '../../features/presets/components/load-into-session-panel';
 import { PresetDetailsPanel } from '../../features/presets/components/preset-details-panel';
 import { PresetUploadForm } from '../../features/presets/components/preset-upload-form';
-import { PresetsTable, type PresetAction } from '../../features/presets/components/presets-table';
+import { PresetsTable } from '../../features/presets/components/presets-table';
 import { tagsInUse } from '../../features/presets/tags';
 import { useDebouncedValue } from '../../features/presets/use-debounced-value';
 import NotFoundPage from './not-found-page';
@@ -25,7 +22,11 @@ const LOADING_ROWS = 6;
 const controlClass =
   'rounded-md border border-slate-700/30 bg-white px-3 py-2 font-normal text-slate-900 focus-visible:outline-2 focus-visible:outline-teal-400 dark:border-slate-300/20 dark:bg-slate-900 dark:text-slate-100';
 
-/** The studio's preset library: find, inspect, download and load presets; leads also upload, retag and delete. */
+/**
+ * The studio's preset library: find, audition and select presets in a compact table; the selected
+ * preset's details and actions (download, load into a session; leads also retag and delete) sit
+ * beside it on wide screens and below it on narrow ones. Leads also upload.
+ */
 export default function PresetsPage() {
   const { studioId = '' } = useParams();
   const me = useMe();
@@ -38,17 +39,25 @@ export default function PresetsPage() {
   const presets = usePresets(studioId, { q, tag, sort });
   // The tag menu offers every tag of the studio, not only those of the rows a filter left.
   const allPresets = usePresets(studioId);
-  const [panel, setPanel] = useState<{ action: PresetAction; preset: PresetSummary } | null>(null);
+  const [selected, setSelected] = useState<PresetSummary | null>(null);
+  const [focusRequest, setFocusRequest] = useState(0);
   const [flash, setFlash] = useState<string | null>(null);
   const returnFocus = useRef<HTMLElement | null>(null);
+  const details = useRef<HTMLDivElement>(null);
   const ids = useId();
+  const detailsId = `${ids}-details`;
 
-  // When a panel closes, focus goes back to the button that opened it (if its row is still there).
+  // When the details close, focus goes back to the row or button that opened them (if still there).
   useEffect(() => {
-    if (panel || !returnFocus.current) return;
+    if (selected || !returnFocus.current) return;
     if (returnFocus.current.isConnected) returnFocus.current.focus();
     returnFocus.current = null;
-  }, [panel]);
+  }, [selected]);
+  // Below the table (narrow screens), a newly selected preset's details are brought into view.
+  const selectedId = selected?.id ?? null;
+  useEffect(() => {
+    if (selectedId) details.current?.scrollIntoView?.({ block: 'nearest' });
+  }, [selectedId]);
 
   if (me.isPending) return <LoadingBlock label="Loading the studio…" rows={LOADING_ROWS} />;
   if (!studio) return <NotFoundPage />;
@@ -57,16 +66,19 @@ export default function PresetsPage() {
   const tagOptions = tagsInUse(allPresets.data ?? []);
   if (tag && !tagOptions.includes(tag)) tagOptions.push(tag);
 
-  const openPanel = (action: PresetAction, preset: PresetSummary) => {
+  const select = (preset: PresetSummary, focusDetails: boolean) => {
     returnFocus.current = document.activeElement instanceof HTMLElement ? document.activeElement : null;
-    setFlash(null);
-    setPanel({ action, preset });
+    if (preset.id !== selectedId) setFlash(null);
+    setSelected(preset);
+    if (focusDetails) setFocusRequest((count) => count + 1);
   };
-  const closePanel = () => setPanel(null);
-  const finish = (message: string) => {
+  const closeDetails = () => setSelected(null);
+  const finish = (message: string, deleted: boolean) => {
     setFlash(message);
-    setPanel(null);
+    if (deleted) setSelected(null);
   };
+  // The row's latest summary (after a tag edit, say); kept as it was when a filter hides the row.
+  const shown = selected ? (presets.data?.find((preset) => preset.id === selected.id) ?? selected) : null;
 
   const count = presets.data?.length ?? 0;
   // A new search or filter keeps the previous rows on screen, dimmed, until its answer arrives.
@@ -114,27 +126,47 @@ export default function PresetsPage() {
           <Notice tone="success">{flash}</Notice>
         </div>
       )}
-      {panel?.action === 'details' && <PresetDetailsPanel key={panel.preset.id} preset={panel.preset} onClose={closePanel} />}
-      {panel?.action === 'load' && <LoadIntoSessionPanel key={panel.preset.id} studioId={studioId} preset={panel.preset} onClose={closePanel} />}
-      {panel?.action === 'tags' && <EditTagsPanel key={panel.preset.id} studioId={studioId} preset={panel.preset} onDone={finish} onClose={closePanel} />}
-      {panel?.action === 'delete' && <DeletePresetPanel key={panel.preset.id} studioId={studioId} preset={panel.preset} onDone={finish} onClose={closePanel} />}
-
-      {presets.isPending ? (
-        <LoadingBlock label="Loading presets…" rows={LOADING_ROWS} />
-      ) : presets.isError ? (
-        <Notice tone="error" title="Cannot load the presets">
-          {presets.error.message}
-        </Notice>
-      ) : presets.data.length === 0 ? (
-        <EmptyState title={filtered ? 'No preset matches' : 'No presets yet'}>
-          {filtered ? 'Try other words or another tag.' : canManage ? 'Upload a patch JSON file above to start the library.' : 'A lead can add presets from sessions or patch files.'}
-        </EmptyState>
-      ) : (
-        <div aria-busy={searching || undefined} className={searching ? 'opacity-70 transition-opacity' : 'transition-opacity'}>
-          {/* A new server order resets any header sort, so the two never disagree. */}
-          <PresetsTable key={sort} presets={presets.data} canManage={canManage} canLoad={canLoad} onAction={openPanel} />
+      <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_22rem] xl:items-start">
+        <div className="min-w-0">
+          {presets.isPending ? (
+            <LoadingBlock label="Loading presets…" rows={LOADING_ROWS} />
+          ) : presets.isError ? (
+            <Notice tone="error" title="Cannot load the presets">
+              {presets.error.message}
+            </Notice>
+          ) : presets.data.length === 0 ? (
+            <EmptyState title={filtered ? 'No preset matches' : 'No presets yet'}>
+              {filtered ? 'Try other words or another tag.' : canManage ? 'Upload a patch JSON file above to start the library.' : 'A lead can add presets from sessions or patch files.'}
+            </EmptyState>
+          ) : (
+            <div aria-busy={searching || undefined} className={searching ? 'opacity-70 transition-opacity' : 'transition-opacity'}>
+              {/* A new server order resets any header sort, so the two never disagree. */}
+              <PresetsTable key={sort} presets={presets.data} selectedId={selectedId} detailsId={detailsId} onSelect={select} />
+            </div>
+          )}
         </div>
-      )}
+        <div id={detailsId} ref={details} className="min-w-0 scroll-mt-4 xl:sticky xl:top-4 xl:max-h-[calc(100vh-2rem)] xl:overflow-y-auto">
+          {shown ? (
+            <PresetDetailsPanel
+              key={shown.id}
+              studioId={studioId}
+              preset={shown}
+              canManage={canManage}
+              canLoad={canLoad}
+              focusRequest={focusRequest}
+              onDone={finish}
+              onClose={closeDetails}
+            />
+          ) : (
+            presets.isSuccess &&
+            count > 0 && (
+              <p className="rounded-lg border border-dashed border-slate-700/25 p-4 text-sm text-slate-600 dark:border-slate-300/20 dark:text-slate-300">
+                Select a preset to see its figures, design record and actions: download, load into a session, tags and deletion.
+              </p>
+            )
+          )}
+        </div>
+      </div>
     </>
   );
 }

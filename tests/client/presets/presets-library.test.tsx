@@ -2,7 +2,7 @@
 import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { STUDIO_ID } from './fake-api';
-import { findPresetRow, presetNamesInTable, renderPresetsPage } from './presets-page-kit';
+import { findPresetRow, openPresetDetails, presetNamesInTable, renderPresetsPage } from './presets-page-kit';
 
 const LIST = `/api/studios/${STUDIO_ID}/presets`;
 
@@ -13,15 +13,17 @@ afterEach(() => {
 
 describe('presets page: the library', () => {
   it('lists the studio presets with their tags, version and author', async () => {
-    renderPresetsPage({ role: 'lead' });
+    const { user } = renderPresetsPage({ role: 'lead' });
     expect(screen.getByRole('status')).toBeTruthy();
     const row = await findPresetRow('Kelp-Line Nylon');
     const chips = within(within(row).getByRole('list', { name: 'Tags' })).getAllByRole('listitem');
     expect(chips.map((chip) => chip.textContent)).toEqual(['nylon', 'pluck', 'warm']);
     expect(within(row).getByText('v3')).toBeTruthy();
-    expect(within(row).getByText('Wren Halloway')).toBeTruthy();
     expect(presetNamesInTable()).toEqual(['Breakwater Bass', 'Glasswing Quill', 'Kelp-Line Nylon']);
-    const download = within(row).getByRole('link', { name: 'Download Kelp-Line Nylon' });
+    // Author and download moved from the row into the details beside the table.
+    const details = await openPresetDetails(user, 'Kelp-Line Nylon');
+    expect(await within(details).findByText('Wren Halloway')).toBeTruthy();
+    const download = within(details).getByRole('link', { name: 'Download Kelp-Line Nylon' });
     expect(download.getAttribute('href')).toBe('/api/presets/preset-kelp/download');
     expect(download.hasAttribute('download')).toBe(true);
   });

@@ -26,6 +26,16 @@ export async function findPresetRow(name: string): Promise<HTMLElement> {
   return row;
 }
 
+/**
+ * Selects a preset's row (a click on the row itself, not one of its buttons) and returns the
+ * details panel that opens beside the table, where the download, load, tag and delete actions are.
+ */
+export async function openPresetDetails(user: ReturnType<typeof userEvent.setup>, name: string): Promise<HTMLElement> {
+  const row = await findPresetRow(name);
+  await user.click(within(row).getAllByRole('cell')[1]);
+  return screen.findByRole('region', { name: `Details — “${name}”` });
+}
+
 /** The preset names in the table, top to bottom. */
 export function presetNamesInTable(): string[] {
   const table = screen.getByRole('table', { name: 'Presets of this studio' });

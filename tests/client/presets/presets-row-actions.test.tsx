@@ -1,18 +1,18 @@
 // @vitest-environment happy-dom
 import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { findPresetRow, presetNamesInTable, renderPresetsPage } from './presets-page-kit';
+import { findPresetRow, openPresetDetails, presetNamesInTable, renderPresetsPage } from './presets-page-kit';
 
 afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();
 });
 
-describe('presets page: row actions of a lead', () => {
+describe('presets page: actions of a lead on the selected preset', () => {
   it('loads a preset into a chosen open session and links to it', async () => {
     const { api, user, router } = renderPresetsPage({ role: 'lead' });
-    const row = await findPresetRow('Breakwater Bass');
-    await user.click(within(row).getByRole('button', { name: 'Load into session… (Breakwater Bass)' }));
+    const details = await openPresetDetails(user, 'Breakwater Bass');
+    await user.click(within(details).getByRole('button', { name: 'Load into session… (Breakwater Bass)' }));
     const panel = await screen.findByRole('region', { name: 'Load “Breakwater Bass” into a session' });
     const menu = await within(panel).findByRole('combobox', { name: 'Session' });
     // Archived sessions are not offered.
@@ -37,8 +37,8 @@ describe('presets page: row actions of a lead', () => {
 
   it('edits tags as a comma-separated list', async () => {
     const { api, user } = renderPresetsPage({ role: 'lead' });
-    const row = await findPresetRow('Glasswing Quill');
-    await user.click(within(row).getByRole('button', { name: 'Edit tags of Glasswing Quill' }));
+    const details = await openPresetDetails(user, 'Glasswing Quill');
+    await user.click(within(details).getByRole('button', { name: 'Edit tags of Glasswing Quill' }));
     const field = await screen.findByRole('textbox', { name: 'Tags' });
     expect((field as HTMLInputElement).value).toBe('bright, pluck');
     expect(document.activeElement).toBe(field);
@@ -52,8 +52,8 @@ describe('presets page: row actions of a lead', () => {
 
   it('checks tags in the browser with the shared rules', async () => {
     const { api, user } = renderPresetsPage({ role: 'lead' });
-    const row = await findPresetRow('Glasswing Quill');
-    await user.click(within(row).getByRole('button', { name: 'Edit tags of Glasswing Quill' }));
+    const details = await openPresetDetails(user, 'Glasswing Quill');
+    await user.click(within(details).getByRole('button', { name: 'Edit tags of Glasswing Quill' }));
     const field = await screen.findByRole('textbox', { name: 'Tags' });
     await user.type(field, `, ${'x'.repeat(40)}{Enter}`);
     expect(await screen.findByText('Tag 3: must be at most 32 characters')).toBeTruthy();
@@ -63,14 +63,14 @@ describe('presets page: row actions of a lead', () => {
 
   it('deletes only after the confirmation step', async () => {
     const { api, user } = renderPresetsPage({ role: 'lead' });
-    const row = await findPresetRow('Glasswing Quill');
-    await user.click(within(row).getByRole('button', { name: 'Delete Glasswing Quill' }));
+    const details = await openPresetDetails(user, 'Glasswing Quill');
+    await user.click(within(details).getByRole('button', { name: 'Delete Glasswing Quill' }));
     const panel = await screen.findByRole('region', { name: 'Delete “Glasswing Quill”?' });
     await user.click(within(panel).getByRole('button', { name: 'Keep it' }));
     expect(api.requestsTo('DELETE', '/api/presets/preset-glasswing')).toHaveLength(0);
     expect(presetNamesInTable()).toContain('Glasswing Quill');
 
-    await user.click(within(await findPresetRow('Glasswing Quill')).getByRole('button', { name: 'Delete Glasswing Quill' }));
+    await user.click(within(details).getByRole('button', { name: 'Delete Glasswing Quill' }));
     await user.click(within(await screen.findByRole('region', { name: 'Delete “Glasswing Quill”?' })).getByRole('button', { name: 'Delete preset' }));
     expect(await screen.findByText('“Glasswing Quill” deleted.')).toBeTruthy();
     expect(api.requestsTo('DELETE', '/api/presets/preset-glasswing')).toHaveLength(1);
