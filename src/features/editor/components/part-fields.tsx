@@ -33,16 +33,16 @@ export function ConvertToFreePoints({ connection, readOnly }: { connection: Sess
 export function PartFields({ connection, part, index, ordinal, readOnly, onRemoved }: { connection: SessionEdits; part: ExcitationPart; index: number; ordinal: number; readOnly: boolean; onRemoved: () => void }) {
   return (
     <>
-      <h2 className="self-center text-sm font-semibold">
+      <h2 className="w-full text-sm font-semibold">
         {part.kind === 'pluck' ? 'Pluck' : 'Strike'} {ordinal}
       </h2>
-      <NumberField label="Position" unit="mm" value={part.positionM * 1000} disabled={readOnly} onCommit={(mm) => editPart(connection, index, { positionM: mm / 1000 })} />
+      <NumberField label="Position" unit="mm" value={part.positionM * 1000} digits={4} disabled={readOnly} onCommit={(mm) => editPart(connection, index, { positionM: mm / 1000 })} />
       {part.kind === 'pluck' ? (
-        <NumberField label="Height" unit="mm" value={part.heightM * 1000} disabled={readOnly} onCommit={(mm) => editPart(connection, index, { heightM: mm / 1000 })} />
+        <NumberField label="Height" unit="mm" value={part.heightM * 1000} digits={3} disabled={readOnly} onCommit={(mm) => editPart(connection, index, { heightM: mm / 1000 })} />
       ) : (
-        <NumberField label="Velocity" unit="m/s" value={part.velocityMPerS} disabled={readOnly} onCommit={(mPerS) => editPart(connection, index, { velocityMPerS: mPerS })} />
+        <NumberField label="Velocity" unit="m/s" value={part.velocityMPerS} digits={3} disabled={readOnly} onCommit={(mPerS) => editPart(connection, index, { velocityMPerS: mPerS })} />
       )}
-      <NumberField label={part.kind === 'pluck' ? 'Contact width' : 'Hammer width'} unit="mm" value={part.widthM * 1000} disabled={readOnly} onCommit={(mm) => editPart(connection, index, { widthM: mm / 1000 })} />
+      <NumberField label={part.kind === 'pluck' ? 'Contact width' : 'Hammer width'} unit="mm" value={part.widthM * 1000} digits={3} disabled={readOnly} onCommit={(mm) => editPart(connection, index, { widthM: mm / 1000 })} />
       {part.kind === 'pluck' && (
         <label className="flex flex-col gap-0.5 text-xs font-semibold">
           Contact
