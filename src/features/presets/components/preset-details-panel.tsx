@@ -161,7 +161,7 @@ export function PresetDetailsPanel({ studioId, preset, canManage, canLoad, focus
                 </dd>
                 <dt className={term}>Damping</dt>
                 <dd className="tabular-nums">
-                  b₁ {plain.format(patch.damping.b1PerS)} s⁻¹, b₂ {plain.format(patch.damping.b2M2PerS)} m²/s
+                  <span className="whitespace-nowrap">b₁ {plain.format(patch.damping.b1PerS)} s⁻¹,</span> <span className="whitespace-nowrap">b₂ {plain.format(patch.damping.b2M2PerS)} m²/s</span>
                 </dd>
                 <dt className={term}>First-mode decay</dt>
                 <dd>

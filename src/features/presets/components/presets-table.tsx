@@ -129,7 +129,7 @@ export function PresetsTable({ presets, selectedId, detailsId, onSelect }: Prese
                 <td className="px-3 py-1.5 align-middle">
                   <div className="flex flex-wrap items-start justify-end gap-2">
                     <AuditionButton url={`/api/presets/${preset.id}/preview.wav`} label={preset.name} />
-                    <Button variant={selected ? 'primary' : 'secondary'} aria-expanded={selected} aria-controls={detailsId} onClick={() => onSelect(preset, true)}>
+                    <Button variant="secondary" aria-expanded={selected} aria-controls={detailsId} onClick={() => onSelect(preset, true)}>
                       Details{forPreset(`of ${preset.name}`)}
                     </Button>
                   </div>
