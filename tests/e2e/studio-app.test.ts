@@ -165,6 +165,9 @@ describe('the studio web app in a real browser', () => {
     await page.getByRole('link', { name: 'Presets' }).click();
     await page.getByText('Lantern Room Harp').first().waitFor();
     await expect(page.getByLabel('Patch JSON file').isDisabled()).resolves.toBe(true);
+    // The actions sit in the details beside the table: open a preset's details first.
+    await page.getByRole('row').filter({ hasText: 'Lantern Room Harp' }).first().getByRole('cell').nth(1).click();
+    await page.getByRole('region', { name: 'Details — “Lantern Room Harp”' }).waitFor();
     const deletes = page.getByRole('button', { name: /^Delete/ });
     expect(await deletes.count()).toBeGreaterThan(0);
     for (const button of await deletes.all()) await expect(button.isDisabled()).resolves.toBe(true);
