@@ -2,8 +2,8 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LIVE_ACCESS_MESSAGES } from '../../shared/protocol/live-access';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
+import { signedInDemoPage, openSessionFromList } from '../support/e2e-demo-pages';
 
 /**
  * What a designer sees, in a real browser, when the lead changes their place in the studio while
@@ -19,20 +19,8 @@ beforeAll(async () => {
 
 afterAll(() => harness?.close());
 
-async function signedInPage(role: string): Promise<Page> {
-  const page = await harness.newPage({ height: 900 });
-  const account = DEMO_ACCOUNTS.find((candidate) => candidate.role === role)!;
-  await harness.signIn(page, account.email, DEMO_PASSWORD);
-  await page.getByRole('link', { name: SESSION }).waitFor();
-  return page;
-}
-
-async function openSession(page: Page): Promise<string> {
-  await page.getByRole('link', { name: SESSION }).click();
-  await page.waitForURL(/\/sessions\//);
-  await page.getByTestId('result-figures').waitFor({ timeout: 20_000 });
-  return page.url().split('/sessions/')[1];
-}
+const signedInPage = (role: string): Promise<Page> => signedInDemoPage(harness, role, SESSION);
+const openSession = (page: Page): Promise<string> => openSessionFromList(page, SESSION);
 
 /** The page at 1440×900 and 1280×720, light and dark, for review. */
 async function shoot(page: Page, name: string): Promise<void> {

@@ -4,8 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { polylinesFromParts } from '../../shared/collab/excitation-polyline';
 import type { PluckPart } from '../../shared/patch/excitation-part';
 import type { Patch } from '../../shared/patch/patch-schema';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
+import { signedInDemoPage } from '../support/e2e-demo-pages';
 
 const MARGIN_PX = 36;
 const SESSION = 'Lighthouse stair climb';
@@ -18,13 +18,7 @@ beforeAll(async () => {
 
 afterAll(() => harness?.close());
 
-async function signedInPage(role: string): Promise<Page> {
-  const page = await harness.newPage({ height: 900 });
-  const account = DEMO_ACCOUNTS.find((candidate) => candidate.role === role)!;
-  await harness.signIn(page, account.email, DEMO_PASSWORD);
-  await page.getByRole('link', { name: SESSION }).waitFor();
-  return page;
-}
+const signedInPage = (role: string): Promise<Page> => signedInDemoPage(harness, role, SESSION);
 
 async function openSession(page: Page, sessionId: string): Promise<void> {
   await page.goto(`/sessions/${sessionId}`);

@@ -4,8 +4,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ACTION_REASONS } from '../../shared/access/roles';
 import type { Patch } from '../../shared/patch/patch-schema';
 import { presetLoadedMessage } from '../../shared/protocol/live-access';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
+import { DEMO_ACCOUNTS } from '../../server/seed/demo-seed';
 import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
+import { signedInDemoPage, openSessionFromList } from '../support/e2e-demo-pages';
 
 /**
  * Presets from the editor, in a real browser against the app as `npm start` runs it (demo studio
@@ -26,20 +27,8 @@ beforeAll(async () => {
 
 afterAll(() => harness?.close());
 
-async function signedInPage(role: string): Promise<Page> {
-  const page = await harness.newPage({ height: 900 });
-  const account = DEMO_ACCOUNTS.find((candidate) => candidate.role === role)!;
-  await harness.signIn(page, account.email, DEMO_PASSWORD);
-  await page.getByRole('link', { name: SESSION }).waitFor();
-  return page;
-}
-
-async function openSession(page: Page): Promise<string> {
-  await page.getByRole('link', { name: SESSION }).click();
-  await page.waitForURL(/\/sessions\//);
-  await page.getByTestId('result-figures').waitFor({ timeout: 30_000 });
-  return page.url().split('/sessions/')[1];
-}
+const signedInPage = (role: string): Promise<Page> => signedInDemoPage(harness, role, SESSION);
+const openSession = (page: Page): Promise<string> => openSessionFromList(page, SESSION, 30_000);
 
 async function apiJson<T>(page: Page, url: string): Promise<T> {
   const response = await page.request.get(url);

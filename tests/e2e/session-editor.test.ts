@@ -7,6 +7,7 @@ import type { Patch } from '../../shared/patch/patch-schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
 import { testPatch } from '../support/patches';
+import { signedInDemoPage, openSessionFromList } from '../support/e2e-demo-pages';
 
 const MARGIN_PX = 36;
 
@@ -18,20 +19,8 @@ beforeAll(async () => {
 
 afterAll(() => harness?.close());
 
-async function signedInPage(role: string): Promise<Page> {
-  const page = await harness.newPage({ height: 1000 });
-  const account = DEMO_ACCOUNTS.find((candidate) => candidate.role === role)!;
-  await harness.signIn(page, account.email, DEMO_PASSWORD);
-  await page.getByRole('link', { name: 'Lighthouse stair climb' }).waitFor();
-  return page;
-}
-
-async function openSession(page: Page): Promise<string> {
-  await page.getByRole('link', { name: 'Lighthouse stair climb' }).click();
-  await page.waitForURL(/\/sessions\//);
-  await page.getByTestId('result-figures').waitFor({ timeout: 20_000 });
-  return page.url().split('/sessions/')[1];
-}
+const signedInPage = (role: string): Promise<Page> => signedInDemoPage(harness, role, 'Lighthouse stair climb', 1000);
+const openSession = (page: Page): Promise<string> => openSessionFromList(page, 'Lighthouse stair climb');
 
 async function storedPatch(page: Page, sessionId: string): Promise<Patch> {
   const response = await page.request.get(`/api/sessions/${sessionId}`);
