@@ -1,9 +1,8 @@
-import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LIVE_ACCESS_MESSAGES } from '../../shared/protocol/live-access';
-import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
-import { signedInDemoPage, openSessionFromList } from '../support/e2e-demo-pages';
+import { startE2eHarness, type E2eHarness } from '../support/e2e-harness';
+import { openSessionFromList, screenshotsForReview, signedInDemoPage } from '../support/e2e-demo-pages';
 
 /**
  * What a designer sees, in a real browser, when the lead changes their place in the studio while
@@ -22,18 +21,7 @@ afterAll(() => harness?.close());
 const signedInPage = (role: string): Promise<Page> => signedInDemoPage(harness, role, SESSION);
 const openSession = (page: Page): Promise<string> => openSessionFromList(page, SESSION);
 
-/** The page at 1440×900 and 1280×720, light and dark, for review. */
-async function shoot(page: Page, name: string): Promise<void> {
-  for (const [width, height] of [[1440, 900], [1280, 720]] as const) {
-    for (const colorScheme of ['light', 'dark'] as const) {
-      await page.setViewportSize({ width, height });
-      await page.emulateMedia({ colorScheme });
-      await page.waitForTimeout(500); // colours ease over 150 ms after a theme change
-      await page.screenshot({ path: join(SHOTS, `${name}-${width}-${colorScheme}.png`) });
-    }
-  }
-  await page.emulateMedia({ colorScheme: 'light' });
-}
+const shoot = screenshotsForReview;
 
 describe('live access in the editor', () => {
   it('a designer sees at once when the lead lowers their role, restores it, archives the session and removes them', async () => {

@@ -1,12 +1,11 @@
-import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ACTION_REASONS } from '../../shared/access/roles';
 import type { Patch } from '../../shared/patch/patch-schema';
 import { presetLoadedMessage } from '../../shared/protocol/live-access';
 import { DEMO_ACCOUNTS } from '../../server/seed/demo-seed';
-import { SCREENSHOTS_DIR as SHOTS, startE2eHarness, type E2eHarness } from '../support/e2e-harness';
-import { signedInDemoPage, openSessionFromList } from '../support/e2e-demo-pages';
+import { startE2eHarness, type E2eHarness } from '../support/e2e-harness';
+import { openSessionFromList, screenshotsForReview, signedInDemoPage } from '../support/e2e-demo-pages';
 
 /**
  * Presets from the editor, in a real browser against the app as `npm start` runs it (demo studio
@@ -39,18 +38,7 @@ async function apiJson<T>(page: Page, url: string): Promise<T> {
 /** The sound of a patch: everything but its name (a label). */
 const sound = (patch: Patch) => ({ ...patch, name: '' });
 
-async function shoot(page: Page, name: string): Promise<void> {
-  for (const [width, height] of [[1440, 900], [1280, 720]] as const) {
-    for (const colorScheme of ['light', 'dark'] as const) {
-      await page.setViewportSize({ width, height });
-      await page.emulateMedia({ colorScheme });
-      await page.waitForTimeout(500); // colours ease over 150 ms after a theme change
-      await page.screenshot({ path: join(SHOTS, `${name}-${width}-${colorScheme}.png`) });
-    }
-  }
-  await page.emulateMedia({ colorScheme: 'light' });
-  await page.setViewportSize({ width: 1440, height: 900 });
-}
+const shoot = screenshotsForReview;
 
 describe('presets from the editor', () => {
   it('the lead loads a preset (asked first, everyone told, one undo), saves the session as a preset and finds it in the library', async () => {

@@ -1,6 +1,7 @@
+import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
-import type { E2eHarness } from './e2e-harness';
+import { SCREENSHOTS_DIR, type E2eHarness } from './e2e-harness';
 
 /** A fresh page (its own cookies) signed in as the demo account of `role`, once the studio's list shows `sessionName`. */
 export async function signedInDemoPage(harness: E2eHarness, role: string, sessionName: string, height = 900): Promise<Page> {
@@ -18,4 +19,21 @@ export async function openSessionFromList(page: Page, sessionName: string, timeo
   await page.waitForURL(/\/sessions\//);
   await page.getByTestId('result-figures').waitFor({ timeout: timeoutMs });
   return page.url().split('/sessions/')[1];
+}
+
+/**
+ * Screenshots of the page for review at 1440×900 and 1280×720, light and dark, saved as
+ * `<name>-<width>-<scheme>.png` in the screenshots folder; the page is left at 1440×900, light.
+ */
+export async function screenshotsForReview(page: Page, name: string): Promise<void> {
+  for (const [width, height] of [[1440, 900], [1280, 720]] as const) {
+    for (const colorScheme of ['light', 'dark'] as const) {
+      await page.setViewportSize({ width, height });
+      await page.emulateMedia({ colorScheme });
+      await page.waitForTimeout(500); // colours ease over 150 ms after a theme change
+      await page.screenshot({ path: join(SCREENSHOTS_DIR, `${name}-${width}-${colorScheme}.png`) });
+    }
+  }
+  await page.emulateMedia({ colorScheme: 'light' });
+  await page.setViewportSize({ width: 1440, height: 900 });
 }
