@@ -1,4 +1,3 @@
-import { useEffect, useId, useState } from 'react';
 import { readDesignRecord, sessionTensionSafety, diameterFromLinearDensityM, type DesignRecord } from '../../../../shared/designer/design-record';
 import { formatGauge, parseGauge } from '../../../../shared/designer/gauge-text';
 import { MATERIAL_CHOICES, MATERIALS, type MaterialId } from '../../../../shared/designer/materials';
@@ -13,6 +12,7 @@ import type { Patch } from '../../../../shared/patch/patch-schema';
 import { Notice } from '../../../components/notice';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 import type { SessionEdits } from './commit-patch-number';
+import { TextEntry } from './text-entry';
 import { NumberField } from './number-field';
 import { commitPlainNumbers } from './plain-commit';
 
@@ -20,53 +20,6 @@ interface StringPanelProps {
   connection: SessionEdits;
   patch: Patch;
   readOnly: boolean;
-}
-
-/** A text entry applied on Enter or leaving it, with its problem shown once beside it. */
-function TextEntry({ label, value, hint, disabled, onCommit }: { label: string; value: string; hint?: string; disabled: boolean; onCommit: (text: string) => string | null }) {
-  const id = useId();
-  const [text, setText] = useState(value);
-  const [editing, setEditing] = useState(false);
-  const [problem, setProblem] = useState<string | null>(null);
-  useEffect(() => {
-    if (!editing) setText(value);
-  }, [value, editing]);
-  const commit = () => {
-    setEditing(false);
-    if (text.trim() === value.trim()) return setProblem(null);
-    const refused = onCommit(text);
-    setProblem(refused);
-    if (refused) setText(value);
-  };
-  return (
-    <div className="flex flex-col gap-0.5">
-      <label htmlFor={id} className="text-xs font-semibold text-slate-800 dark:text-slate-100">
-        {label}
-      </label>
-      <input
-        id={id}
-        value={text}
-        disabled={disabled}
-        aria-invalid={problem ? true : undefined}
-        aria-describedby={problem ? `${id}-problem` : hint ? `${id}-hint` : undefined}
-        onFocus={() => setEditing(true)}
-        onChange={(event) => setText(event.target.value)}
-        onBlur={commit}
-        onKeyDown={(event) => event.key === 'Enter' && (event.currentTarget as HTMLInputElement).blur()}
-        className="w-36 rounded border border-slate-700/30 bg-white px-2 py-1 text-sm tabular-nums focus-visible:ring-2 focus-visible:ring-teal-400 disabled:opacity-60 dark:border-slate-300/20 dark:bg-slate-900"
-      />
-      {hint && !problem && (
-        <p id={`${id}-hint`} className="max-w-40 text-xs text-slate-600 dark:text-slate-300">
-          {hint}
-        </p>
-      )}
-      {problem && (
-        <p id={`${id}-problem`} role="alert" className="max-w-56 text-xs text-ember-600 dark:text-ember-400">
-          {problem}
-        </p>
-      )}
-    </div>
-  );
 }
 
 /** The note a frequency is, or the frequency when it is off the equal-tempered notes by more than a cent. */
@@ -160,6 +113,7 @@ export function StringPanel({ connection, patch, readOnly }: StringPanelProps) {
           </select>
         </label>
         <TextEntry
+          widthClass="w-36"
           label="Gauge"
           value={formatGauge(gaugeM)}
           hint={design.diameterM ? 'mm or in: 0.46 mm, .018 in' : 'from the linear density; type a gauge'}
@@ -171,6 +125,7 @@ export function StringPanel({ connection, patch, readOnly }: StringPanelProps) {
         />
         {material.construction === 'wound' && (
           <TextEntry
+            widthClass="w-36"
             label="Core"
             value={formatGauge(coreM)}
             hint={design.core ? 'the steel core’s diameter' : 'assumed; type the maker’s core'}
@@ -181,7 +136,7 @@ export function StringPanel({ connection, patch, readOnly }: StringPanelProps) {
             }}
           />
         )}
-        <TextEntry label="Note" value={pitchText(firstPartialHz)} hint={pitchHint(firstPartialHz)} disabled={readOnly} onCommit={onNote} />
+        <TextEntry widthClass="w-36" label="Note" value={pitchText(firstPartialHz)} hint={pitchHint(firstPartialHz)} disabled={readOnly} onCommit={onNote} />
         <NumberField
           label="Scale length"
           unit="mm"
