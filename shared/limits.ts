@@ -55,6 +55,13 @@ export const LIMITS = {
   presetPreviewCacheBytes: 64 * 1024 * 1024,
   /** Seconds a refused preset audition is told to wait (Retry-After). */
   presetPreviewRetryAfterS: 2,
+  /**
+   * A mode table as the server sends it (shared/protocol/mode-table-wire.ts): at most this many
+   * bytes (4,096 modes take 32.9 KB), with a state vector of at most this many bytes (a longer one
+   * is left out of the table).
+   */
+  modeTableMaxBytes: 64 * 1024,
+  modeTableMaxStateVectorBytes: 4096,
   /** Fewest milliseconds between two compute results sent to one session (one per display frame). */
   computeMinIntervalMs: 16,
   /** Largest websocket message the collaboration endpoint accepts, in bytes. */

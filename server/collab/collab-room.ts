@@ -72,6 +72,8 @@ export class CollabRoom extends EventEmitter {
   private flushTimer: NodeJS.Timeout | null = null;
   private writes: Promise<unknown> = Promise.resolve();
   private lastUpdateId = 0;
+  /** Edits admitted since the room opened: the version a mode table is stamped with. */
+  private admitted = 0;
   private updatesSinceCompact = 0;
   private patchTimer: NodeJS.Timeout | null = null;
   private lastWriter: string | null = null;
@@ -140,6 +142,7 @@ export class CollabRoom extends EventEmitter {
   private onUpdate(update: Uint8Array, origin: unknown): void {
     if (!this.applyingAdmitted) this.gate?.mirror(update);
     if (origin === STORAGE_ORIGIN) return;
+    this.admitted++;
     // Persist first, then broadcast: the update is queued for the database before anyone sees it.
     this.pending.push(update);
     this.flushTimer ??= setTimeout(() => void this.flush(), FLUSH_MS);
@@ -151,6 +154,11 @@ export class CollabRoom extends EventEmitter {
     if (writer) this.lastWriter = writer;
     this.patchTimer ??= setTimeout(() => void this.refreshPatch(), PATCH_REFRESH_MS);
     this.emit('change', writer);
+  }
+
+  /** How many edits the document has taken since the room opened (a mode table's document version). */
+  get version(): number {
+    return this.admitted;
   }
 
   /** Writes queued updates in one transaction; writes run one after another, in order. */

@@ -1,6 +1,7 @@
 import type { Server as HttpServer } from 'node:http';
 import { availableParallelism } from 'node:os';
 import { Server as SocketServer } from 'socket.io';
+import * as Y from 'yjs';
 import { LIVE_ACCESS_MESSAGES, SESSION_NOTICE_EVENT, type LiveAccessEndReason, type SessionNotice } from '../../shared/protocol/live-access';
 import { AccessLookup } from '../access/live-access-decision';
 import { LIVE_ACCESS_SWEEP_MS } from '../collab/live-access-guard';
@@ -10,13 +11,15 @@ import { validatePatch } from '../../shared/patch/validate-patch';
 import {
   COMPUTE_EVENTS,
   PROTOCOL_VERSION,
-  type ComputeResultMessage,
   type InvalidMessage,
+  type ModeTableMessage,
   type JoinedMessage,
   type RefusedMessage,
 } from '../../shared/protocol/compute-protocol';
 import type { ClientToServerEvents, InterServerEvents, ServerToClientEvents, SocketData } from '../../shared/protocol/socket-events';
 import { claimedId, parsePayload, payloadProblem, subscribeRequestSchema, unsubscribeRequestSchema } from '../../shared/protocol/socket-payloads';
+import { restampModeTable } from '../../shared/protocol/mode-table-wire';
+import type { Patch } from '../../shared/patch/patch-schema';
 import type { AppContext } from '../app-context';
 import { tokenFromCookieHeader, userFromToken } from '../auth/authenticate';
 import { isOriginAllowed } from '../http/request-origin';
@@ -34,14 +37,28 @@ const subscribedOf = (socket: AppSocket) => socket.data.sessions;
 interface SessionCompute {
   scheduler: ComputeScheduler;
   sequence: number;
-  latest: ComputeResultMessage | InvalidMessage | null;
+  /** The last message sent, and the document version it was computed for. */
+  latest: ModeTableMessage | InvalidMessage | null;
+  latestVersion: number;
+  /** Tables of the last few distinct patches (by their physics), so undo or a rename costs no compute. */
+  tables: Map<string, Uint8Array>;
+}
+
+/** Distinct patches whose tables a session keeps. */
+const TABLES_KEPT = 8;
+
+/** What a mode table depends on: the physics, not the name or the designer's notes. */
+function physicsKey(patch: Patch): string {
+  const { string, excitation, damping, pickup, render } = patch;
+  return JSON.stringify([string.lengthM, string.tensionN, string.linearDensityKgPerM, string.inharmonicityB, excitation.displacementM, excitation.velocityMPerS ?? null, damping.b1PerS, damping.b2M2PerS, pickup.output, pickup.positionM, render.sampleRateHz, render.durationS, render.maxModes]);
 }
 
 /**
  * The compute channel (socket.io on /socket.io/): members subscribe to a session; on every change
- * of its document the server computes the mode table and a preview on a worker thread and sends
- * every subscriber the result, arrays as binary. A patch that fails validation sends its field
- * problems instead.
+ * of its document the server computes the mode table once (latest wins, on a worker thread) and
+ * sends every subscriber the same binary table (shared/protocol/mode-table-wire.ts), stamped with
+ * the document version it was computed for. No audio: each browser synthesises its own preview
+ * from the table. A patch that fails validation sends its field problems instead.
  */
 export function attachComputeChannel(httpServer: HttpServer, context: AppContext, hub: CollabHub, previewDurationS: number = LIMITS.livePreviewMaxDurationS) {
   const io = new SocketServer<ClientToServerEvents, ServerToClientEvents, InterServerEvents, SocketData>(httpServer, {
@@ -88,21 +105,35 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
       const created: SessionCompute = {
         sequence: 0,
         latest: null,
+        latestVersion: -1,
+        tables: new Map(),
         scheduler: new ComputeScheduler(async () => {
           const sequence = ++created.sequence;
+          const room = hub.room(sessionId);
+          // Read before the patch: the table is for this version or a later one, never an earlier one.
+          const documentVersion = room?.version ?? 0;
+          const stateVector = room ? Y.encodeStateVector(room.doc) : new Uint8Array(0);
           const patch = await currentPatch(sessionId);
           if (!patch.ok) {
             const invalid: InvalidMessage = { type: 'invalid', sessionId, sequence, issues: patch.issues };
             return () => {
               created.latest = invalid;
+              created.latestVersion = documentVersion;
               io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.invalid, invalid);
             };
           }
-          const output = await worker.compute(patch.value, previewDurationS);
-          const result: ComputeResultMessage = { type: 'result', sessionId, sequence, ...output };
+          const stamp = { sequence, documentVersion, stateVector };
+          const key = physicsKey(patch.value);
+          const known = created.tables.get(key);
+          const table = known ? restampModeTable(known, stamp) : await worker.compute(patch.value, previewDurationS, stamp);
+          created.tables.delete(key);
+          created.tables.set(key, table);
+          if (created.tables.size > TABLES_KEPT) created.tables.delete(created.tables.keys().next().value as string);
+          const message: ModeTableMessage = { type: 'table', sessionId, table };
           return () => {
-            created.latest = result;
-            io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.result, result);
+            created.latest = message;
+            created.latestVersion = documentVersion;
+            io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.table, message);
           };
         }),
       };
@@ -132,8 +163,9 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
         subscribedOf(socket).set(sessionId, { studioId: access.studioId, readOnly: access.readOnly, role: access.role });
         socket.emit(COMPUTE_EVENTS.joined, { type: 'joined', sessionId, role: access.role, readOnly: access.readOnly, archived: access.archived } satisfies JoinedMessage);
         const entry = computeFor(sessionId);
-        if (entry.latest && !entry.scheduler.busy) {
-          if (entry.latest.type === 'result') socket.emit(COMPUTE_EVENTS.result, entry.latest);
+        // The last table is sent at once when the document has not changed since; otherwise a fresh one follows.
+        if (entry.latest && !entry.scheduler.busy && entry.latestVersion === (hub.room(sessionId)?.version ?? 0)) {
+          if (entry.latest.type === 'table') socket.emit(COMPUTE_EVENTS.table, entry.latest);
           else socket.emit(COMPUTE_EVENTS.invalid, entry.latest);
         } else entry.scheduler.schedule();
       } catch (error) {

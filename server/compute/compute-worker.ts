@@ -1,7 +1,7 @@
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { Patch } from '../../shared/patch/patch-schema';
-import type { ComputeOutput } from './compute-patch';
+import type { TableStamp } from '../../shared/engine/mode-table-message';
 
 const bootPath = fileURLToPath(new URL('../engine-pool/worker-boot.cjs', import.meta.url));
 const entryPath = fileURLToPath(new URL('./compute-worker-entry.ts', import.meta.url));
@@ -10,16 +10,16 @@ const entryPath = fileURLToPath(new URL('./compute-worker-entry.ts', import.meta
 export class ComputeWorker {
   private worker: Worker | null = null;
   private nextId = 1;
-  private readonly waiting = new Map<number, { resolve: (output: ComputeOutput) => void; reject: (error: Error) => void }>();
+  private readonly waiting = new Map<number, { resolve: (bytes: Uint8Array) => void; reject: (error: Error) => void }>();
 
   private start(): Worker {
     const worker = new Worker(bootPath, { workerData: { entry: entryPath } });
     worker.unref();
-    worker.on('message', ({ id, output, error }: { id: number; output?: ComputeOutput; error?: string }) => {
+    worker.on('message', ({ id, bytes, error }: { id: number; bytes?: Uint8Array; error?: string }) => {
       const waiter = this.waiting.get(id);
       this.waiting.delete(id);
       if (!waiter) return;
-      if (output) waiter.resolve(output);
+      if (bytes) waiter.resolve(bytes);
       else waiter.reject(new Error(error ?? 'compute failed'));
     });
     const fail = (error: Error) => {
@@ -32,12 +32,13 @@ export class ComputeWorker {
     return worker;
   }
 
-  compute(patch: Patch, previewDurationS: number): Promise<ComputeOutput> {
+  /** The encoded mode table of a validated patch (shared/protocol/mode-table-wire.ts). */
+  compute(patch: Patch, previewDurationS: number, stamp: TableStamp): Promise<Uint8Array> {
     this.worker ??= this.start();
     const id = this.nextId++;
     return new Promise((resolve, reject) => {
       this.waiting.set(id, { resolve, reject });
-      this.worker?.postMessage({ id, patch, previewDurationS });
+      this.worker?.postMessage({ id, patch, previewDurationS, stamp });
     });
   }
 

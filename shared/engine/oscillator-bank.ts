@@ -1,4 +1,6 @@
-import type { Patch } from '../patch/patch-schema';
+import type { PickupOutput } from '../patch/patch-schema';
+import type { Hertz, Metres } from '../units';
+import type { StringProperties } from './mode-frequencies';
 import type { ModeTable } from './mode-table';
 import { pickupReadsVelocity, pickupWeight } from './pickup-weights';
 import { newFastOscillators, newSlowOscillators, type FastOscillators, type OscillatorBank, type SlowOscillators } from './oscillator-storage';
@@ -7,6 +9,13 @@ import { newFastOscillators, newSlowOscillators, type FastOscillators, type Osci
 export type { FastOscillators, OscillatorBank, SlowOscillators } from './oscillator-storage';
 
 export const CUT_RATIO = 2 ** -60;
+
+/** What a bank is built from besides the mode table: a patch, or a mode table received from the server. */
+export interface BankSource {
+  string: StringProperties;
+  pickup: { output: PickupOutput; positionM: Metres };
+  render: { sampleRateHz: Hertz };
+}
 export const FAST_GROUP = 4;
 
 interface Prepared {
@@ -48,7 +57,7 @@ function samplesUntilBelow(amplitude: number, floor: number, ratePerSample: numb
  *
  * Builds the oscillators of a patch's kept modes for a render of `sampleCount` samples.
  */
-export function buildOscillatorBank(patch: Patch, table: ModeTable, sampleCount: number, secondPickupM?: number): OscillatorBank {
+export function buildOscillatorBank(patch: BankSource, table: ModeTable, sampleCount: number, secondPickupM?: number): OscillatorBank {
   const { string, pickup, render } = patch;
   const stereo = secondPickupM !== undefined;
   const dt = 1 / render.sampleRateHz;

@@ -2,14 +2,14 @@ import type { Role } from '../access/roles';
 import type { FieldIssue } from '../patch/field-issue';
 
 /** Bumped whenever an event or payload below changes shape. */
-export const PROTOCOL_VERSION = 2;
+export const PROTOCOL_VERSION = 3;
 
 /** socket.io event names of the compute channel; nothing spells them as loose strings. */
 export const COMPUTE_EVENTS = {
   subscribe: 'compute:subscribe',
   unsubscribe: 'compute:unsubscribe',
   joined: 'compute:joined',
-  result: 'compute:result',
+  table: 'compute:table',
   invalid: 'compute:invalid',
   refused: 'compute:refused',
 } as const;
@@ -30,29 +30,14 @@ export interface JoinedMessage {
 }
 
 /**
- * The mode table and preview of the session's current patch. Arrays travel as binary
- * (socket.io sends typed arrays as attachments): in the browser they arrive as ArrayBuffer,
- * in Node as Buffer.
+ * The mode table of the session's current patch, as one binary block (shared/protocol/mode-table-wire.ts:
+ * its sequence, the document version it was computed for, the modes, no audio). It travels as a
+ * socket.io attachment: a typed array when sent, an ArrayBuffer (browser) or Buffer (Node) when received.
  */
-export interface ComputeResultMessage<F64 = Float64Array, F32 = Float32Array> {
-  type: 'result';
+export interface ModeTableMessage<B = Uint8Array> {
+  type: 'table';
   sessionId: string;
-  /** Increases with each result of a session; a client ignores one older than what it shows. */
-  sequence: number;
-  f0Hz: number;
-  waveSpeedMPerS: number;
-  totalEnergyJ: number;
-  modeCount: number;
-  frequencyHz: F64;
-  aM: F64;
-  vMPerS: F64;
-  energyJ: F64;
-  decayRatePerS: F64;
-  previewSampleRateHz: number;
-  /** The preview at the pickup, peak-normalised to ±1 (physical peak alongside). */
-  preview: F32;
-  previewPhysicalPeak: number;
-  computeMs: number;
+  table: B;
 }
 
 export interface InvalidMessage {

@@ -1,7 +1,7 @@
 import type { Role } from '../access/roles';
 import {
   COMPUTE_EVENTS,
-  type ComputeResultMessage,
+  type ModeTableMessage,
   type InvalidMessage,
   type JoinedMessage,
   type RefusedMessage,
@@ -22,8 +22,8 @@ import { RENDER_EVENTS, type RenderJoinedMessage, type RenderProgressMessage, ty
 /** A binary array as it travels: a typed array when sent, an ArrayBuffer (browser) or Buffer (Node) when received. */
 export type WireBinary = ArrayBuffer | ArrayBufferView;
 
-/** The compute result as it travels. */
-export type WireComputeResultMessage = ComputeResultMessage<WireBinary, WireBinary>;
+/** The mode table as it travels. */
+export type WireModeTableMessage = ModeTableMessage<WireBinary>;
 
 export interface ClientToServerEvents {
   [COMPUTE_EVENTS.subscribe]: (request: SubscribeRequest) => void;
@@ -34,7 +34,7 @@ export interface ClientToServerEvents {
 
 export interface ServerToClientEvents {
   [COMPUTE_EVENTS.joined]: (message: JoinedMessage) => void;
-  [COMPUTE_EVENTS.result]: (message: WireComputeResultMessage) => void;
+  [COMPUTE_EVENTS.table]: (message: WireModeTableMessage) => void;
   [COMPUTE_EVENTS.invalid]: (message: InvalidMessage) => void;
   [COMPUTE_EVENTS.refused]: (message: RefusedMessage) => void;
   [SESSION_NOTICE_EVENT]: (notice: SessionNotice) => void;

@@ -34,44 +34,17 @@ export function isWireBinary(value: unknown): value is WireBinary {
   return value instanceof ArrayBuffer || ArrayBuffer.isView(value) || Object.prototype.toString.call(value) === '[object ArrayBuffer]';
 }
 
-/** Binary holding whole elements of `bytesPerElement` bytes (8 for Float64Array, 4 for Float32Array). */
-const binary = (bytesPerElement: 4 | 8) =>
-  z.custom<WireBinary>(
-    (value) => isWireBinary(value) && (value as { byteLength: number }).byteLength % bytesPerElement === 0,
-    `must be binary data of ${bytesPerElement}-byte numbers`,
-  );
-
 const count = z.number('must be a number').int('must be a whole number').nonnegative('must be >= 0');
-const finite = z.number('must be a number');
 
-const byteLengthOf = (value: WireBinary) => value.byteLength;
-const MODE_ARRAYS = ['frequencyHz', 'aM', 'vMPerS', 'energyJ', 'decayRatePerS'] as const;
-
-export const computeResultMessageSchema = z
-  .object({
-    type: z.literal('result'),
-    sessionId: z.string(),
-    sequence: count,
-    f0Hz: finite,
-    waveSpeedMPerS: finite,
-    totalEnergyJ: finite,
-    modeCount: count,
-    frequencyHz: binary(8),
-    aM: binary(8),
-    vMPerS: binary(8),
-    energyJ: binary(8),
-    decayRatePerS: binary(8),
-    previewSampleRateHz: z.number('must be a number').positive('must be > 0'),
-    preview: binary(4),
-    previewPhysicalPeak: finite,
-    computeMs: finite,
-  })
-  .superRefine((message, context) => {
-    for (const key of MODE_ARRAYS) {
-      const length = byteLengthOf(message[key]) / 8;
-      if (length !== message.modeCount) context.addIssue({ code: 'custom', path: [key], message: `must hold modeCount (${message.modeCount}) numbers, holds ${length}` });
-    }
-  });
+/**
+ * The envelope of a mode table; the table itself is binary and read by decodeModeTable
+ * (shared/protocol/mode-table-wire.ts), which checks its size, format and every field.
+ */
+export const modeTableMessageSchema = z.object({
+  type: z.literal('table'),
+  sessionId: z.string(),
+  table: z.custom<WireBinary>((value) => isWireBinary(value), 'must be binary data'),
+});
 
 export const fieldIssueSchema = z.object({
   field: z.string(),

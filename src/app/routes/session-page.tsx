@@ -22,6 +22,7 @@ import { HandleFields } from '../../features/editor/components/handle-fields';
 import { NoteKeyboard } from '../../features/editor/components/note-keyboard';
 import { PluckTool } from '../../features/editor/components/pluck-tool';
 import { PreviewAudition } from '../../features/editor/components/preview-audition';
+import { usePreviewSound } from '../../lib/synthesis/use-preview-sound';
 import { PlausibilityNotice } from '../../features/editor/components/plausibility-notice';
 import { SessionPresetControls } from '../../features/editor/components/session-preset-controls';
 import { nextDisplayRangeM, StringCanvas } from '../../features/editor/components/string-canvas';
@@ -93,6 +94,8 @@ export default function SessionPage() {
   const [activeLayer, setActiveLayer] = useState<'displacement' | 'velocity'>('displacement');
   const rangeRef = useRef<number | null>(null);
   const settledResult = useSettledValue(snapshot?.result ?? null);
+  const sound = usePreviewSound(snapshot?.result ?? null);
+  const settledSound = useSettledValue(sound);
   const comparisons = useMemo(() => (presets.data ?? []).map((preset) => ({ id: preset.id, name: preset.name, url: `/api/presets/${preset.id}/preview.wav` })), [presets.data]);
 
   useEffect(() => {
@@ -220,7 +223,7 @@ export default function SessionPage() {
           </section>
         )}
         <ErrorBoundary title="Audition">
-          <PreviewAudition result={snapshot.result} comparisons={comparisons} />
+          <PreviewAudition sound={sound} comparisons={comparisons} />
         </ErrorBoundary>
       </div>
       {strokeProblem && <Notice tone="caution">{strokeProblem}</Notice>}
@@ -228,8 +231,8 @@ export default function SessionPage() {
   );
 
   const lowerTabs = [
-    { id: 'spectrum', label: 'Spectrum', render: () => <Spectrum result={settledResult} issues={snapshot.computeIssues} fill /> },
-    { id: 'waveform', label: 'Waveform', render: () => <Waveform result={settledResult} issues={snapshot.computeIssues} fill /> },
+    { id: 'spectrum', label: 'Spectrum', render: () => <Spectrum result={settledResult} sound={settledSound} issues={snapshot.computeIssues} fill /> },
+    { id: 'waveform', label: 'Waveform', render: () => <Waveform result={settledResult} sound={settledSound} issues={snapshot.computeIssues} fill /> },
     {
       id: 'motion',
       label: 'Slow motion',

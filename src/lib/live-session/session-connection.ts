@@ -6,15 +6,13 @@ import { docSharedTypes, validatedPatchFromDoc } from '../../../shared/collab/pa
 import type { FieldIssue } from '../../../shared/patch/field-issue';
 import type { Patch } from '../../../shared/patch/patch-schema';
 import type { Role } from '../../../shared/access/roles';
-import {
-  COMPUTE_EVENTS,
-  PROTOCOL_VERSION,
-  type ComputeResultMessage,
-  type RefusedMessage,
-} from '../../../shared/protocol/compute-protocol';
+import { COMPUTE_EVENTS, PROTOCOL_VERSION, type RefusedMessage } from '../../../shared/protocol/compute-protocol';
+import type { ModeTable } from '../../../shared/engine/mode-table';
+import { modeTableFromWire } from '../../../shared/engine/table-synthesis';
+import { decodeModeTable, type ModeTableWire } from '../../../shared/protocol/mode-table-wire';
 import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, SESSION_NOTICE_EVENT, type LiveAccessEndReason, type SessionNotice } from '../../../shared/protocol/live-access';
-import type { ClientToServerEvents, ServerToClientEvents, WireBinary, WireComputeResultMessage } from '../../../shared/protocol/socket-events';
-import { computeResultMessageSchema, invalidMessageSchema, joinedMessageSchema, refusedMessageSchema, sessionNoticeSchema } from '../../../shared/protocol/socket-payloads';
+import type { ClientToServerEvents, ServerToClientEvents } from '../../../shared/protocol/socket-events';
+import { modeTableMessageSchema, invalidMessageSchema, joinedMessageSchema, refusedMessageSchema, sessionNoticeSchema } from '../../../shared/protocol/socket-payloads';
 import { MalformedMessages } from '../socket-messages';
 
 /** What a teammate shares about themselves while in a session. */
@@ -32,8 +30,21 @@ export interface Presence {
 
 export type ConnectionState = 'connecting' | 'connected' | 'reconnecting' | 'offline';
 
-/** The mode table and preview as the client keeps them (binary arrays as typed arrays). */
-export type ComputeResult = ComputeResultMessage<Float64Array, Float32Array>;
+/**
+ * The mode table as the client keeps it: every per-mode quantity rebuilt from the received table
+ * (shared/engine/table-synthesis.ts), and the table itself, from which the preview is synthesised.
+ */
+export interface ComputeResult extends ModeTable {
+  sessionId: string;
+  sequence: number;
+  /** The server document's version the table was computed for. */
+  documentVersion: number;
+  modeCount: number;
+  computeMs: number;
+  wire: ModeTableWire;
+  /** Size of the table as it arrived, bytes. */
+  byteLength: number;
+}
 
 /** Something the server told this person about the session that they should see (a change of rights, a refused edit, storage trouble). */
 export interface LiveNotice {
@@ -84,27 +95,14 @@ export interface SessionConnectionOptions {
   WebSocketPolyfill?: typeof WebSocket;
 }
 
-/**
- * Socket.io delivers binary as ArrayBuffer in the browser and as Buffer in Node; copy into aligned
- * typed arrays. The message has passed computeResultMessageSchema, so each holds whole numbers.
- */
-function copyBytes(value: WireBinary): ArrayBuffer {
-  if (ArrayBuffer.isView(value)) return value.buffer.slice(value.byteOffset, value.byteOffset + value.byteLength) as ArrayBuffer;
-  return value.slice(0);
-}
-const toFloat64 = (value: WireBinary) => new Float64Array(copyBytes(value));
-const toFloat32 = (value: WireBinary) => new Float32Array(copyBytes(value));
-
-export function decodeComputeResult(message: WireComputeResultMessage): ComputeResult {
-  return {
-    ...message,
-    frequencyHz: toFloat64(message.frequencyHz),
-    aM: toFloat64(message.aM),
-    vMPerS: toFloat64(message.vMPerS),
-    energyJ: toFloat64(message.energyJ),
-    decayRatePerS: toFloat64(message.decayRatePerS),
-    preview: toFloat32(message.preview),
-  };
+/** The result of a received table, or why it was refused. */
+export function computeResultFromTable(sessionId: string, bytes: unknown): { ok: true; result: ComputeResult } | { ok: false; reason: string } {
+  const decoded = decodeModeTable(bytes);
+  if (!decoded.ok) return decoded;
+  const { table: wire } = decoded;
+  const table = modeTableFromWire(wire);
+  const byteLength = (bytes as { byteLength: number }).byteLength;
+  return { ok: true, result: { ...table, sessionId, sequence: wire.sequence, documentVersion: wire.documentVersion, modeCount: table.count, computeMs: wire.computeMs, wire, byteLength } };
 }
 
 /** y-websocket's message type for auth (permission denied). */
@@ -164,6 +162,8 @@ export class SessionConnection {
   private readonly peersFrame = frameCoalescer(() => this.updatePeers());
   private readonly listeners = new Set<() => void>();
   private everConnected = false;
+  /** The sequence of the last table shown in this subscription (a fresh `joined` starts again at 0). */
+  private lastSequence = 0;
 
   constructor(private readonly options: SessionConnectionOptions) {
     this.snapshot = {
@@ -197,20 +197,31 @@ export class SessionConnection {
     const { malformed } = this;
     this.socket.on(COMPUTE_EVENTS.joined, malformed.listener(COMPUTE_EVENTS.joined, joinedMessageSchema, (message) => {
       if (this.snapshot.accessEnded) return;
+      // A new subscription: the server may have started its sequence again (a restart, the session reopened).
+      this.lastSequence = 0;
       this.update({ role: message.role, readOnly: message.readOnly, readOnlyReason: message.archived ? LIVE_ACCESS_MESSAGES.readOnlyArchived : null, refused: null });
       const current = this.provider.awareness.getLocalState() as Presence | null;
       if (current) this.provider.awareness.setLocalState({ ...current, role: message.role });
     }));
     this.socket.on(COMPUTE_EVENTS.refused, malformed.listener(COMPUTE_EVENTS.refused, refusedMessageSchema, (message) => this.update({ refused: message })));
-    this.socket.on(COMPUTE_EVENTS.result, malformed.listener(COMPUTE_EVENTS.result, computeResultMessageSchema, (message) => {
-      if (message.sessionId !== options.sessionId) return;
-      if (this.snapshot.result && message.sequence <= this.snapshot.result.sequence) return;
-      this.update({ result: decodeComputeResult(message), computeIssues: [] });
-    }));
+    this.socket.on(COMPUTE_EVENTS.table, malformed.listener(COMPUTE_EVENTS.table, modeTableMessageSchema, (message) => this.onTable(message.sessionId, message.table)));
     this.socket.on(COMPUTE_EVENTS.invalid, malformed.listener(COMPUTE_EVENTS.invalid, invalidMessageSchema, (message) => {
       if (message.sessionId === options.sessionId) this.update({ computeIssues: message.issues });
     }));
     this.socket.on(SESSION_NOTICE_EVENT, malformed.listener(SESSION_NOTICE_EVENT, sessionNoticeSchema, (notice) => this.onNotice(notice)));
+  }
+
+  /**
+   * A mode table from the server: refused (logged once, counted) when it does not decode or is
+   * too large; ignored when older than the one shown, so a late table never replaces a newer one.
+   */
+  onTable(sessionId: string, bytes: unknown): void {
+    if (sessionId !== this.options.sessionId) return;
+    const received = computeResultFromTable(sessionId, bytes);
+    if (!received.ok) return this.malformed.note(COMPUTE_EVENTS.table, [received.reason]);
+    if (received.result.sequence <= this.lastSequence) return;
+    this.lastSequence = received.result.sequence;
+    this.update({ result: received.result, computeIssues: [] });
   }
 
   /** A fresh document, provider and undo manager, wired to the snapshot. */

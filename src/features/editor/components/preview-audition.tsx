@@ -4,7 +4,7 @@ import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 import { SegmentedChoice } from '../../../components/segmented-choice';
 import { playSamples, playUrl, stopPlayback } from '../../../lib/audio-output';
 import { useHearingCaution } from '../../../components/use-hearing-caution';
-import type { ComputeResult } from '../../../lib/live-session/session-connection';
+import type { PreviewSound } from '../../../lib/synthesis/preview-sound';
 
 /** A sound to compare the session's string with: a preset's preview, by its URL. */
 export interface ComparisonSound {
@@ -18,7 +18,7 @@ export interface ComparisonSound {
  * limiter, and A/B against a preset's preview (key B switches). The first play on a device shows
  * a short hearing-safety caution.
  */
-export function PreviewAudition({ result, comparisons = [] }: { result: ComputeResult | null; comparisons?: ComparisonSound[] }) {
+export function PreviewAudition({ sound, comparisons = [] }: { sound: PreviewSound | null; comparisons?: ComparisonSound[] }) {
   const [playing, setPlaying] = useState(false);
   const [loop, setLoop] = useState(false);
   const [info, setInfo] = useState<string | null>(null);
@@ -35,12 +35,12 @@ export function PreviewAudition({ result, comparisons = [] }: { result: ComputeR
       if (!loop) setTimeout(() => setPlaying(false), played.durationS * 1000);
       return;
     }
-    if (!result) return;
-    const played = await playSamples(result.preview, result.previewSampleRateHz, loop);
+    if (!sound) return;
+    const played = await playSamples(sound.samples, sound.sampleRateHz, loop);
     setPlaying(true);
     setInfo(`${comparison ? 'A: this string · ' : ''}${played.bufferLength} samples at ${played.bufferSampleRateHz} Hz · audio ${played.contextState}`);
     if (!loop) setTimeout(() => setPlaying(false), played.durationS * 1000);
-  }, [result, loop, playingB, comparison]);
+  }, [sound, loop, playingB, comparison]);
   const { requestPlay, caution } = useHearingCaution(play);
 
   const toggle = useCallback(() => {
@@ -77,7 +77,7 @@ export function PreviewAudition({ result, comparisons = [] }: { result: ComputeR
 
   return (
     <section aria-label="Audition" className="flex flex-wrap items-center gap-x-3 gap-y-2">
-      <Button onClick={toggle} disabledReason={result || playingB ? undefined : 'no preview yet'} aria-keyshortcuts="Space">
+      <Button onClick={toggle} disabledReason={sound || playingB ? undefined : 'no preview yet'} aria-keyshortcuts="Space">
         {playing ? '■ Stop' : playingB ? '▶ Play B' : '▶ Play preview'}
       </Button>
       <label className="flex items-center gap-2 text-sm">

@@ -86,7 +86,7 @@ export const StringMotion = memo(function StringMotion({ result, lengthM, dark }
       simTimeRef.current += (now - last) / 1000 / slowdown;
       last = now;
       // Start again once the tone has decayed to a trace (the preview's length is the horizon).
-      if (simTimeRef.current > result.preview.length / result.previewSampleRateHz) simTimeRef.current = 0;
+      if (simTimeRef.current > result.wire.preview.durationS) simTimeRef.current = 0;
       draw(simTimeRef.current);
       frame = requestAnimationFrame(step);
     });

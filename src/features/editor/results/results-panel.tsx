@@ -2,6 +2,7 @@ import { memo } from 'react';
 import { Notice } from '../../../components/notice';
 import type { FieldIssue } from '../../../../shared/patch/field-issue';
 import type { ComputeResult } from '../../../lib/live-session/session-connection';
+import type { PreviewSound } from '../../../lib/synthesis/preview-sound';
 import { resultsState } from './chart-frame';
 import { ModeChart } from './mode-chart';
 import { resultFigures } from './result-figures';
@@ -11,6 +12,8 @@ import { Waveform } from './waveform';
 
 export interface ResultsPanelProps {
   result: ComputeResult | null;
+  /** The preview synthesised from the result, for the spectrum and waveform. */
+  sound?: PreviewSound | null;
   issues: FieldIssue[];
   /** Called with the mode number under the pointer or keyboard in the mode chart, null when none. */
   onHoverMode?: (n: number | null) => void;
@@ -25,10 +28,11 @@ const LISTED_ISSUES = 5;
  * (those two redraw when results settle, at least once a second while they stream). Memoised: a
  * teammate's drag changes the patch many times a second, and none of that redraws the charts.
  */
-export const ResultsPanel = memo(function ResultsPanel({ result, issues, onHoverMode }: ResultsPanelProps) {
+export const ResultsPanel = memo(function ResultsPanel({ result, sound = null, issues, onHoverMode }: ResultsPanelProps) {
   const state = resultsState(result, issues);
   // The mode chart follows every result; the spectrum and waveform redraw once results settle.
   const settledResult = useSettledValue(result);
+  const settledSound = useSettledValue(sound);
   return (
     <section aria-label="Results" className="flex flex-col gap-3">
       {state === 'problems' ? (
@@ -45,8 +49,8 @@ export const ResultsPanel = memo(function ResultsPanel({ result, issues, onHover
       )}
       <ModeChart result={result} issues={issues} onHoverMode={onHoverMode} />
       <div className="grid gap-3 md:grid-cols-2">
-        <Spectrum result={settledResult} issues={issues} />
-        <Waveform result={settledResult} issues={issues} />
+        <Spectrum result={settledResult} sound={settledSound} issues={issues} />
+        <Waveform result={settledResult} sound={settledSound} issues={issues} />
       </div>
     </section>
   );

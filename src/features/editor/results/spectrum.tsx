@@ -1,6 +1,7 @@
 import { memo, useMemo } from 'react';
 import type { FieldIssue } from '../../../../shared/patch/field-issue';
 import type { ComputeResult } from '../../../lib/live-session/session-connection';
+import type { PreviewSound } from '../../../lib/synthesis/preview-sound';
 import { BottomAxis, SideAxis, type ChartMargins } from './chart-axes';
 import { ChartFrame, resultsState } from './chart-frame';
 import { frequencyTickLabel, linearScale, logScale, logTicks } from './chart-scales';
@@ -11,6 +12,8 @@ import { MINUS } from './si-prefix';
 
 export interface SpectrumProps {
   result: ComputeResult | null;
+  /** The preview synthesised from the result (its spectrum is drawn once it is complete). */
+  sound: PreviewSound | null;
   issues: FieldIssue[];
   /** Fill the parent's height (a workbench pane) instead of the fixed height. */
   fill?: boolean;
@@ -35,36 +38,37 @@ function levelTickLabel(levelDb: number): string {
  * faint ticks along the top, so one sees which partials the pickup hears. The transform is done once per result;
  * each pixel column draws the largest bin it covers.
  */
-export const Spectrum = memo(function Spectrum({ result, issues, fill = false }: SpectrumProps) {
+export const Spectrum = memo(function Spectrum({ result, sound, issues, fill = false }: SpectrumProps) {
   const state = resultsState(result, issues);
-  const spectrum = useMemo(() => (result ? magnitudeSpectrum(result.preview, result.previewSampleRateHz) : null), [result]);
+  const preview = sound?.complete ? sound : null;
+  const spectrum = useMemo(() => (preview ? magnitudeSpectrum(preview.samples, preview.sampleRateHz) : null), [preview]);
   const summary =
     result && spectrum
-      ? spectrum.silent || result.preview.length === 0
+      ? spectrum.silent || spectrum.analysedSampleCount === 0
         ? 'The preview is silent.'
-        : `Spectrum of ${spectrum.analysedSampleCount < result.preview.length ? `the first ${spectrum.analysedDurationS.toFixed(2)} s of the preview` : `the whole ${spectrum.analysedDurationS.toFixed(2)} s preview`} ` +
+        : `Spectrum of ${spectrum.analysedSampleCount < (preview?.samples.length ?? 0) ? `the first ${spectrum.analysedDurationS.toFixed(2)} s of the preview` : `the whole ${spectrum.analysedDurationS.toFixed(2)} s preview`} ` +
           `(${formatCount(spectrum.fftSize)}-point transform, Hann window, ` +
           `${spectrum.binHz.toPrecision(3)} Hz bins); strongest at ${formatHz(spectrumPeakHz(spectrum, SPECTRUM_FROM_HZ))}.`
       : null;
 
   return (
     <ChartFrame title="Spectrum" subject="the spectrum" summary={summary} state={state} heightPx={fill ? undefined : HEIGHT_PX}>
-      {(widthPx, heightPx) => (result && spectrum ? <SpectrumPlot result={result} spectrum={spectrum} widthPx={widthPx} heightPx={heightPx} /> : null)}
+      {(widthPx, heightPx) => (result && spectrum ? <SpectrumPlot result={result} nyquistHz={(preview?.sampleRateHz ?? 0) / 2} spectrum={spectrum} widthPx={widthPx} heightPx={heightPx} /> : null)}
     </ChartFrame>
   );
 });
 
 interface SpectrumPlotProps {
   result: ComputeResult;
+  nyquistHz: number;
   spectrum: ReturnType<typeof magnitudeSpectrum>;
   widthPx: number;
   heightPx: number;
 }
 
-function SpectrumPlot({ result, spectrum, widthPx, heightPx }: SpectrumPlotProps) {
+function SpectrumPlot({ result, nyquistHz, spectrum, widthPx, heightPx }: SpectrumPlotProps) {
   const plotRight = Math.max(MARGINS.left + 10, widthPx - MARGINS.right);
   const plotBottom = heightPx - MARGINS.bottom;
-  const nyquistHz = result.previewSampleRateHz / 2;
   const toHz = Math.max(nyquistHz, SPECTRUM_FROM_HZ * 2);
   const x = useMemo(() => logScale([SPECTRUM_FROM_HZ, toHz], [MARGINS.left, plotRight]), [toHz, plotRight]);
   const y = useMemo(() => linearScale(LEVEL_RANGE_DB, [plotBottom, MARGINS.top]), [plotBottom]);

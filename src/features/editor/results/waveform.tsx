@@ -1,6 +1,7 @@
 import { memo, useMemo } from 'react';
 import type { FieldIssue } from '../../../../shared/patch/field-issue';
 import type { ComputeResult } from '../../../lib/live-session/session-connection';
+import type { PreviewSound } from '../../../lib/synthesis/preview-sound';
 import { BottomAxis, SideAxis, type ChartMargins } from './chart-axes';
 import { ChartFrame, resultsState } from './chart-frame';
 import { linearScale, linearTicks } from './chart-scales';
@@ -11,6 +12,8 @@ import { MINUS } from './si-prefix';
 
 export interface WaveformProps {
   result: ComputeResult | null;
+  /** The preview synthesised from the result (drawn once it is complete). */
+  sound: PreviewSound | null;
   issues: FieldIssue[];
   /** Fill the parent's height (a workbench pane) instead of the fixed height. */
   fill?: boolean;
@@ -37,27 +40,28 @@ function signedLabel(value: number): string {
  * the right-hand axis, 0 dB at the top and −60 dB on the centre line), where an exponential decay is
  * a straight line.
  */
-export const Waveform = memo(function Waveform({ result, issues, fill = false }: WaveformProps) {
+export const Waveform = memo(function Waveform({ result, sound, issues, fill = false }: WaveformProps) {
   const state = resultsState(result, issues);
-  const durationS = result ? result.preview.length / result.previewSampleRateHz : 0;
-  const wholeEnvelope = useMemo(() => (result ? rmsEnvelope(result.preview, result.previewSampleRateHz, envelopeBlockS(result.f0Hz, durationS, 0)) : null), [result, durationS]);
+  const preview = sound?.complete ? sound : null;
+  const durationS = preview ? preview.samples.length / preview.sampleRateHz : 0;
+  const wholeEnvelope = useMemo(() => (result && preview ? rmsEnvelope(preview.samples, preview.sampleRateHz, envelopeBlockS(result.f0Hz, durationS, 0)) : null), [result, preview, durationS]);
   let summary: string | null = null;
   if (result && wholeEnvelope) {
     const levels = wholeEnvelope.levelDb;
     summary =
       levels.length === 0
         ? 'The preview is empty.'
-        : `${durationS.toFixed(2)} s of the preview at ${(result.previewSampleRateHz / 1000).toLocaleString('en')} kHz, normalised to its peak. ` +
+        : `${durationS.toFixed(2)} s of the preview at ${((preview?.sampleRateHz ?? 0) / 1000).toLocaleString('en')} kHz, normalised to its peak. ` +
           `The envelope falls from ${formatDb(Math.max(...levels))} to ${formatDb(levels[levels.length - 1])}.`;
   }
   return (
     <ChartFrame title="Waveform" subject="the waveform" summary={summary} state={state} heightPx={fill ? undefined : HEIGHT_PX}>
-      {(widthPx, heightPx) => (result ? <WaveformPlot result={result} durationS={durationS} widthPx={widthPx} heightPx={heightPx} /> : null)}
+      {(widthPx, heightPx) => (result && preview ? <WaveformPlot result={result} preview={preview} durationS={durationS} widthPx={widthPx} heightPx={heightPx} /> : null)}
     </ChartFrame>
   );
 });
 
-function WaveformPlot({ result, durationS, widthPx, heightPx }: { result: ComputeResult; durationS: number; widthPx: number; heightPx: number }) {
+function WaveformPlot({ result, preview, durationS, widthPx, heightPx }: { result: ComputeResult; preview: PreviewSound; durationS: number; widthPx: number; heightPx: number }) {
   const plotRight = Math.max(MARGINS.left + 10, widthPx - MARGINS.right);
   const plotBottom = heightPx - MARGINS.bottom;
   const columns = Math.max(1, Math.round(plotRight - MARGINS.left));
@@ -65,7 +69,7 @@ function WaveformPlot({ result, durationS, widthPx, heightPx }: { result: Comput
   const y = useMemo(() => linearScale([-1, 1], [plotBottom, MARGINS.top]), [plotBottom]);
 
   const wave = useMemo(() => {
-    const { min, max } = columnMinMax(result.preview, columns);
+    const { min, max } = columnMinMax(preview.samples, columns);
     const upper: string[] = [];
     const lower: string[] = [];
     for (let c = 0; c < columns; c++) {
@@ -74,17 +78,17 @@ function WaveformPlot({ result, durationS, widthPx, heightPx }: { result: Comput
       // A column whose samples are all equal still gets a hairline.
       lower.push(`L${px} ${(y(min[c]) + (max[c] === min[c] ? 0.5 : 0)).toFixed(1)}`);
     }
-    return columns > 0 && result.preview.length > 0 ? `${upper.join('')}${lower.reverse().join('')}Z` : '';
-  }, [result, columns, y]);
+    return columns > 0 && preview.samples.length > 0 ? `${upper.join('')}${lower.reverse().join('')}Z` : '';
+  }, [preview, columns, y]);
 
   const envelope = useMemo(() => {
-    const { timeS, levelDb } = rmsEnvelope(result.preview, result.previewSampleRateHz, envelopeBlockS(result.f0Hz, durationS, columns));
+    const { timeS, levelDb } = rmsEnvelope(preview.samples, preview.sampleRateHz, envelopeBlockS(result.f0Hz, durationS, columns));
     const parts: string[] = [];
     for (let block = 0; block < timeS.length; block++) {
       parts.push(`${block === 0 ? 'M' : 'L'}${x(timeS[block]).toFixed(1)} ${y(envelopeAmplitude(levelDb[block])).toFixed(1)}`);
     }
     return parts.join('');
-  }, [result, durationS, columns, x, y]);
+  }, [result, preview, durationS, columns, x, y]);
 
   const timeTicks = linearTicks(x.domain, Math.max(2, Math.floor(columns / 70)));
   const dbScale = linearScale([-ENVELOPE_RANGE_DB, 0], [y(0), y(1)]);
