@@ -4,7 +4,7 @@ import { FAST_GROUP, type FastOscillators, type OscillatorBank, type SlowOscilla
 const BLOCK_SAMPLES = 512;
 
 // Repeated on purpose: render-bank-stereo.ts (and the mono and stereo functions of
-// server/engine-wasm/mode-kernel.wat) repeat this kernel rather than share it with a channel count
+// shared/engine-wasm/mode-kernel.wat) repeat this kernel rather than share it with a channel count
 // or a callback. Hot loops stay monomorphic and keep their state in registers; the four unrolled
 // modes of a group repeat for the same reason. A change here goes into those copies too, and
 // tests/server/wasm-kernel.test.ts checks that they still agree sample for sample.

@@ -7,12 +7,21 @@ import { renderBank } from '../../shared/engine/render-bank';
 import { renderBankStereo } from '../../shared/engine/render-bank-stereo';
 import { compileKernel } from '../../server/engine-wasm/build-kernel';
 import { createWasmBankRenderer, MODE_KERNEL_WASM } from '../../server/engine-wasm/wasm-bank-renderer';
+import { wasmKernelSupported } from '../../shared/engine-wasm/wasm-bank-renderer';
 import { testPatch, validPatch } from '../support/patches';
 import { peakRelativeDifference } from '../support/signal-difference';
 
 describe('the WebAssembly SIMD mode kernel', () => {
   it('is built from its text: the committed binary is what wabt makes of mode-kernel.wat (npm run build:kernel)', async () => {
+    expect(MODE_KERNEL_WASM.endsWith('/shared/engine-wasm/mode-kernel.wasm')).toBe(true);
     expect(Buffer.from(readFileSync(MODE_KERNEL_WASM)).equals(Buffer.from(await compileKernel()))).toBe(true);
+  });
+
+  it('is one binary for the server and the browser: shared/engine-wasm holds it, and this runtime validates its SIMD instructions', () => {
+    const bytes = readFileSync(MODE_KERNEL_WASM);
+    expect(wasmKernelSupported(bytes)).toBe(true);
+    // A module that is not WebAssembly is refused, so a browser without SIMD falls back to TypeScript.
+    expect(wasmKernelSupported(new Uint8Array([0, 97, 115, 109, 9, 9, 9, 9]))).toBe(false);
   });
 
   it('renders mono and stereo banks, ringing and heavily damped modes, in segments, to the TypeScript kernels’ samples', () => {
