@@ -6,7 +6,7 @@ import { CollabHub } from './collab/collab-hub';
 import { typeormCollabStorage } from './collab/collab-storage';
 import { COLLAB_PATH, collabUpgradeHandler } from './collab/collab-upgrade';
 import { attachCollabAccessGuard } from './collab/live-access-guard';
-import { attachComputeChannel } from './compute/compute-channel';
+import { attachComputeChannel, type ComputeCounts } from './compute/compute-channel';
 import { isOriginAllowed } from './http/request-origin';
 import { attachRenderChannel } from './renders/render-channel';
 import { RenderService } from './renders/render-service';
@@ -30,6 +30,8 @@ function decodablePath(path: string): boolean {
 export interface TautlineServer {
   server: Server;
   hub: CollabHub;
+  /** What the compute channel has done: worker computes, tables re-sent from cache, emits. */
+  computeCounts: Readonly<ComputeCounts>;
   /** Listens on `port` (0: a free one) at `host` (default 127.0.0.1, this machine only); resolves with the port. */
   listen(port: number, host?: string): Promise<number>;
   close(): Promise<void>;
@@ -63,6 +65,7 @@ export function createTautlineServer(context: AppContext, options: AppOptions & 
   return {
     server,
     hub,
+    computeCounts: compute.counts,
     listen: (port, host = '127.0.0.1') =>
       new Promise((resolve, reject) => {
         server.once('error', reject);

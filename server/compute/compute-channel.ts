@@ -44,6 +44,16 @@ interface SessionCompute {
   tables: Map<string, Uint8Array>;
 }
 
+/**
+ * What the channel has done since it started: tables computed on a worker, tables re-sent from a
+ * session's cache (an undo, a rename), and table emits (one to a session's room counts once). Read by tests.
+ */
+export interface ComputeCounts {
+  workerComputes: number;
+  cachedTables: number;
+  tablesSent: number;
+}
+
 /** Distinct patches whose tables a session keeps. */
 const TABLES_KEPT = 8;
 
@@ -73,6 +83,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
   const workers = Array.from({ length: Math.max(1, Math.min(2, availableParallelism())) }, () => new ComputeWorker());
   let nextWorker = 0;
   const computes = new Map<string, SessionCompute>();
+  const counts: ComputeCounts = { workerComputes: 0, cachedTables: 0, tablesSent: 0 };
 
   io.use((socket, next) => {
     const token = (socket.handshake.auth as { token?: unknown })?.token;
@@ -125,6 +136,8 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
           const stamp = { sequence, documentVersion, stateVector };
           const key = physicsKey(patch.value);
           const known = created.tables.get(key);
+          if (known) counts.cachedTables++;
+          else counts.workerComputes++;
           const table = known ? restampModeTable(known, stamp) : await worker.compute(patch.value, previewDurationS, stamp);
           created.tables.delete(key);
           created.tables.set(key, table);
@@ -133,6 +146,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
           return () => {
             created.latest = message;
             created.latestVersion = documentVersion;
+            counts.tablesSent++;
             io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.table, message);
           };
         }),
@@ -165,7 +179,10 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
         const entry = computeFor(sessionId);
         // The last table is sent at once when the document has not changed since; otherwise a fresh one follows.
         if (entry.latest && !entry.scheduler.busy && entry.latestVersion === (hub.room(sessionId)?.version ?? 0)) {
-          if (entry.latest.type === 'table') socket.emit(COMPUTE_EVENTS.table, entry.latest);
+          if (entry.latest.type === 'table') {
+            counts.tablesSent++;
+            socket.emit(COMPUTE_EVENTS.table, entry.latest);
+          }
           else socket.emit(COMPUTE_EVENTS.invalid, entry.latest);
         } else entry.scheduler.schedule();
       } catch (error) {
@@ -259,6 +276,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
 
   return {
     io,
+    counts: counts as Readonly<ComputeCounts>,
     close: async () => {
       hub.off('change', onChange);
       hub.off('notice', onNotice);

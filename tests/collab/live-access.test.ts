@@ -2,7 +2,9 @@ import WebSocket from 'ws';
 import { io as connectSocket, type Socket } from 'socket.io-client';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { patchDoc } from '../../shared/collab/patch-doc';
-import { COMPUTE_EVENTS, PROTOCOL_VERSION, type ComputeResultMessage } from '../../shared/protocol/compute-protocol';
+import { COMPUTE_EVENTS, PROTOCOL_VERSION } from '../../shared/protocol/compute-protocol';
+import { decodeModeTable } from '../../shared/protocol/mode-table-wire';
+import type { WireModeTableMessage } from '../../shared/protocol/socket-events';
 import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, SESSION_NOTICE_EVENT, type SessionNotice } from '../../shared/protocol/live-access';
 import { RENDER_EVENTS, type RenderProgressMessage, type RenderRefusedMessage } from '../../shared/protocol/render-protocol';
 import { createTautlineServer, type TautlineServer } from '../../server/http-server';
@@ -86,17 +88,17 @@ function rawCollab(fixture: StudioFixture, token: string): Promise<{ socket: Web
   });
 }
 
-/** A raw socket.io client following a session's compute results (and optionally a studio's renders). */
-async function rawChannel(token: string): Promise<{ socket: Socket; notices: SessionNotice[]; results: ComputeResultMessage[]; progress: RenderProgressMessage[]; refused: RenderRefusedMessage[]; disconnected: () => boolean }> {
+/** A raw socket.io client following a session's mode tables (and optionally a studio's renders). */
+async function rawChannel(token: string): Promise<{ socket: Socket; notices: SessionNotice[]; results: WireModeTableMessage[]; progress: RenderProgressMessage[]; refused: RenderRefusedMessage[]; disconnected: () => boolean }> {
   const socket = connectSocket(baseUrl, { path: '/socket.io/', transports: ['websocket'], auth: { token } });
   sockets.push(socket);
   const notices: SessionNotice[] = [];
-  const results: ComputeResultMessage[] = [];
+  const results: WireModeTableMessage[] = [];
   const progress: RenderProgressMessage[] = [];
   const refused: RenderRefusedMessage[] = [];
   let disconnected = false;
   socket.on(SESSION_NOTICE_EVENT, (notice: SessionNotice) => notices.push(notice));
-  socket.on(COMPUTE_EVENTS.result, (message: ComputeResultMessage) => results.push(message));
+  socket.on(COMPUTE_EVENTS.table, (message: WireModeTableMessage) => results.push(message));
   socket.on(RENDER_EVENTS.progress, (message: RenderProgressMessage) => progress.push(message));
   socket.on(RENDER_EVENTS.refused, (message: RenderRefusedMessage) => refused.push(message));
   socket.on('disconnect', () => (disconnected = true));
@@ -107,11 +109,18 @@ async function rawChannel(token: string): Promise<{ socket: Socket; notices: Ses
   return { socket, notices, results, progress, refused, disconnected: () => disconnected };
 }
 
+/** The document version a received table was computed for (it must decode). */
+function tableVersion(message: WireModeTableMessage): number {
+  const decoded = decodeModeTable(message.table);
+  if (!decoded.ok) throw new Error(decoded.reason);
+  return decoded.table.documentVersion;
+}
+
 async function subscribeCompute(channel: Awaited<ReturnType<typeof rawChannel>>, sessionId: string): Promise<void> {
   const joined = new Promise<void>((resolve) => channel.socket.once(COMPUTE_EVENTS.joined, () => resolve()));
   channel.socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId });
   await joined;
-  await eventually(() => channel.results.length > 0, 10_000, 'a first compute result');
+  await eventually(() => channel.results.length > 0, 10_000, 'a first mode table');
 }
 
 describe('live access follows changes of role and state', () => {
@@ -174,9 +183,11 @@ describe('live access follows changes of role and state', () => {
 
     const resultsBefore = channel.results.length;
     const watcherBefore = watcher.results.length;
+    const versionBefore = Math.max(...watcher.results.map(tableVersion));
     const tensionBefore = designer.getSnapshot().patch?.string.tensionN;
     lead.edit((doc) => patchDoc(doc).string.set('tensionN', 58.5));
-    await eventually(() => watcher.results.some((result, index) => index >= watcherBefore && result.sequence > 0), 10_000, 'the lead still gets results');
+    // A table computed after the edit: it decodes, and it is for a document version past the one before.
+    await eventually(() => watcher.results.some((result, index) => index >= watcherBefore && tableVersion(result) > versionBefore), 10_000, 'the lead still gets tables');
     await waitForSnapshot(lead, (s) => s.patch?.string.tensionN === 58.5, 5000, 'lead edit applied');
     expect(channel.results.length).toBe(resultsBefore);
     expect(designer.getSnapshot().patch?.string.tensionN).toBe(tensionBefore);

@@ -3,10 +3,10 @@ import { LIMITS } from '../../../shared/limits';
 import { PROTOCOL_VERSION } from '../../../shared/protocol/compute-protocol';
 import {
   claimedId,
-  computeResultMessageSchema,
   invalidMessageSchema,
   isWireBinary,
   joinedMessageSchema,
+  modeTableMessageSchema,
   parsePayload,
   payloadProblem,
   refusedMessageSchema,
@@ -24,32 +24,10 @@ const STUDIO = 'a3e8b1f0-7c2d-4d6e-8f91-0b5c4a2e7d36';
 
 const messagesOf = (result: ReturnType<typeof parsePayload>) => (result.ok ? [] : result.issues.map((issue) => issue.message));
 
-/** A compute result as it arrives: binary as Buffer (Node) or ArrayBuffer (browser). */
-function wireResult(modeCount: number, binary: 'buffer' | 'arraybuffer', overrides: Record<string, unknown> = {}) {
-  const f64 = (length: number) => {
-    const array = new Float64Array(length).map((_, i) => 110 * (i + 1));
-    return binary === 'buffer' ? Buffer.from(array.buffer) : array.buffer;
-  };
-  const f32 = (length: number) => (binary === 'buffer' ? Buffer.from(new Float32Array(length).buffer) : new Float32Array(length).buffer);
-  return {
-    type: 'result',
-    sessionId: SESSION,
-    sequence: 3,
-    f0Hz: 110,
-    waveSpeedMPerS: 143,
-    totalEnergyJ: 0.002,
-    modeCount,
-    frequencyHz: f64(modeCount),
-    aM: f64(modeCount),
-    vMPerS: f64(modeCount),
-    energyJ: f64(modeCount),
-    decayRatePerS: f64(modeCount),
-    previewSampleRateHz: 48000,
-    preview: f32(480),
-    previewPhysicalPeak: 0.003,
-    computeMs: 4.2,
-    ...overrides,
-  };
+/** A mode-table message as it arrives: the table as Buffer (Node) or ArrayBuffer (browser). */
+function wireTable(binary: 'buffer' | 'arraybuffer', overrides: Record<string, unknown> = {}) {
+  const bytes = new Uint8Array(132 + 8 * 12);
+  return { type: 'table', sessionId: SESSION, table: binary === 'buffer' ? Buffer.from(bytes.buffer) : bytes.buffer, ...overrides };
 }
 
 describe('requests the server receives', () => {
@@ -91,23 +69,25 @@ describe('requests the server receives', () => {
 });
 
 describe('messages the browser receives', () => {
-  it('a compute result: binary as Buffer (Node) or ArrayBuffer (browser) is taken', () => {
+  it('a mode table: binary as Buffer (Node) or ArrayBuffer (browser) is taken; its contents are read by decodeModeTable, not here', () => {
     expect(isWireBinary(Buffer.alloc(8))).toBe(true);
     expect(isWireBinary(new ArrayBuffer(8))).toBe(true);
     expect(isWireBinary([1, 2])).toBe(false);
     expect(isWireBinary({ byteLength: 8 })).toBe(false);
-    expect(parsePayload(computeResultMessageSchema, wireResult(12, 'buffer')).ok).toBe(true);
-    expect(parsePayload(computeResultMessageSchema, wireResult(12, 'arraybuffer')).ok).toBe(true);
-    expect(parsePayload(computeResultMessageSchema, wireResult(0, 'arraybuffer')).ok).toBe(true);
+    expect(parsePayload(modeTableMessageSchema, wireTable('buffer')).ok).toBe(true);
+    expect(parsePayload(modeTableMessageSchema, wireTable('arraybuffer')).ok).toBe(true);
+    expect(parsePayload(modeTableMessageSchema, wireTable('arraybuffer', { table: new ArrayBuffer(0) })).ok).toBe(true);
   });
 
-  it('a compute result: numbers as a plain array, a torn buffer, a length other than modeCount, a missing field are refused by name', () => {
-    expect(messagesOf(parsePayload(computeResultMessageSchema, wireResult(4, 'buffer', { aM: [0, 0, 0, 0] })))).toEqual(['aM must be binary data of 8-byte numbers, got an array of 4 items']);
-    expect(messagesOf(parsePayload(computeResultMessageSchema, wireResult(4, 'arraybuffer', { preview: new ArrayBuffer(6) })))).toEqual(['preview must be binary data of 4-byte numbers, got an object']);
-    expect(messagesOf(parsePayload(computeResultMessageSchema, wireResult(4, 'buffer', { energyJ: Buffer.alloc(24) })))).toEqual(['energyJ must hold modeCount (4) numbers, holds 3, got an object']);
-    const { sequence: _dropped, ...noSequence } = wireResult(4, 'buffer');
-    expect(messagesOf(parsePayload(computeResultMessageSchema, noSequence))).toEqual(['sequence is required']);
-    expect(messagesOf(parsePayload(computeResultMessageSchema, wireResult(4, 'buffer', { f0Hz: 'A2' })))).toEqual(['f0Hz must be a number, got "A2"']);
+  it('a mode table: numbers as a plain array, text, a missing table or session, another type are refused by name', () => {
+    expect(messagesOf(parsePayload(modeTableMessageSchema, wireTable('buffer', { table: [0, 0, 0, 0] })))).toEqual(['table must be binary data, got an array of 4 items']);
+    expect(messagesOf(parsePayload(modeTableMessageSchema, wireTable('buffer', { table: 'TLMT' })))).toEqual(['table must be binary data, got "TLMT"']);
+    const { table: _table, ...noTable } = wireTable('buffer');
+    // z.custom sees a missing table as a value that is not binary: still named by its field.
+    expect(messagesOf(parsePayload(modeTableMessageSchema, noTable))).toEqual(['table must be binary data']);
+    const { sessionId: _session, ...noSession } = wireTable('buffer');
+    expect(messagesOf(parsePayload(modeTableMessageSchema, noSession))).toEqual(['sessionId is required']);
+    expect(parsePayload(modeTableMessageSchema, wireTable('buffer', { type: 'result' })).ok).toBe(false);
   });
 
   it('invalid, joined, refused and notices', () => {
