@@ -29,7 +29,7 @@ function handMadeTable(modeCount: number, stateVector = new Uint8Array([5, 1, 20
     pickup: { output: 'velocity', positionM: 0.1 + 1e-12 },
     render: { sampleRateHz: 96000, durationS: 59.999999999 },
     preview: { sampleRateHz: 24000, durationS: 12 },
-    totalEnergyJ: 1.2345678901234567e-7,
+    totalEnergyJ: 1e-6 / 7,
     computeMs: 0.123456789,
     aM: Float32Array.from({ length: modeCount }, (_, m) => Math.fround(0.003 / (m + 1) ** 2) * (m % 2 ? -1 : 1)),
     vMPerS: Float32Array.from({ length: modeCount }, (_, m) => Math.fround(-0.7 / (m + 1)) + Math.fround(1e-30)),
