@@ -23,6 +23,7 @@ import { NoteKeyboard } from '../../features/editor/components/note-keyboard';
 import { PluckTool } from '../../features/editor/components/pluck-tool';
 import { PreviewAudition } from '../../features/editor/components/preview-audition';
 import { usePreviewSound } from '../../lib/synthesis/use-preview-sound';
+import { auditionProbe } from '../../lib/audio/audition-probe';
 import { PlausibilityNotice } from '../../features/editor/components/plausibility-notice';
 import { SessionPresetControls } from '../../features/editor/components/session-preset-controls';
 import { nextDisplayRangeM, StringCanvas } from '../../features/editor/components/string-canvas';
@@ -96,6 +97,8 @@ export default function SessionPage() {
   const settledResult = useSettledValue(snapshot?.result ?? null);
   const sound = usePreviewSound(snapshot?.result ?? null);
   const settledSound = useSettledValue(sound);
+  // Only when a test opened the page with its probe: stamps this page's edits and the tables it receives.
+  useEffect(() => (connection && auditionProbe ? auditionProbe.watchSession(connection) : undefined), [connection]);
   const comparisons = useMemo(() => (presets.data ?? []).map((preset) => ({ id: preset.id, name: preset.name, url: `/api/presets/${preset.id}/preview.wav` })), [presets.data]);
 
   useEffect(() => {

@@ -1,8 +1,10 @@
-import { useCallback, useEffect, useState } from 'react';
+import { useCallback, useEffect, useLayoutEffect, useState } from 'react';
 import { Button } from '../../../components/button';
 import { COMPACT_CONTROL_CLASS } from '../../../components/compact-control';
 import { SegmentedChoice } from '../../../components/segmented-choice';
-import { playSamples, playUrl, stopPlayback } from '../../../lib/audio-output';
+import { followPreview, observeLoop, onSamplesEnded, playPreview, playUrl, setPreviewLoop, stopPlayback } from '../../../lib/audio-output';
+import { auditionProbe } from '../../../lib/audio/audition-probe';
+import { isPlayable } from '../../../lib/audio/preview-playable';
 import { useHearingCaution } from '../../../components/use-hearing-caution';
 import type { PreviewSound } from '../../../lib/synthesis/preview-sound';
 
@@ -13,10 +15,15 @@ export interface ComparisonSound {
   url: string;
 }
 
+// The end-to-end tests' probe (null unless a test asked for it) watches the preview loop.
+if (auditionProbe) observeLoop(auditionProbe);
+
 /**
- * Plays the preview the server sent (space bar), once or looped, through the master volume and the
- * limiter, and A/B against a preset's preview (key B switches). The first play on a device shows
- * a short hearing-safety caution.
+ * Plays the session's preview (space bar), once or looped, through the master volume and the
+ * limiter, and A/B against a preset's preview (key B switches). Playing starts as soon as the
+ * preview's first 250 ms are ready; looped, it follows every newer preview (a drag is heard as it
+ * happens), each crossfaded in at the same place in the loop. The first play on a device shows a
+ * short hearing-safety caution.
  */
 export function PreviewAudition({ sound, comparisons = [] }: { sound: PreviewSound | null; comparisons?: ComparisonSound[] }) {
   const [playing, setPlaying] = useState(false);
@@ -35,13 +42,25 @@ export function PreviewAudition({ sound, comparisons = [] }: { sound: PreviewSou
       if (!loop) setTimeout(() => setPlaying(false), played.durationS * 1000);
       return;
     }
-    if (!sound) return;
-    const played = await playSamples(sound.samples, sound.sampleRateHz, loop);
+    if (!sound || !isPlayable(sound)) return;
+    const played = await playPreview(sound, loop);
     setPlaying(true);
     setInfo(`${comparison ? 'A: this string · ' : ''}${played.bufferLength} samples at ${played.bufferSampleRateHz} Hz · audio ${played.contextState}`);
-    if (!loop) setTimeout(() => setPlaying(false), played.durationS * 1000);
   }, [sound, loop, playingB, comparison]);
   const { requestPlay, caution } = useHearingCaution(play);
+  const playingA = playing && !playingB;
+
+  // Each new preview, and each further part of one, goes to the loop at once (before paint): it
+  // decides whether to crossfade it in (src/lib/audio/loop-crossfade.ts).
+  useLayoutEffect(() => {
+    if (sound) auditionProbe?.soundSeen(sound);
+    if (sound && playingA) void followPreview(sound);
+  }, [sound, playingA]);
+  useEffect(() => {
+    void setPreviewLoop(loop);
+  }, [loop]);
+  // Played once, the preview ends by itself (however long it was extended).
+  useEffect(() => (playingA ? onSamplesEnded(() => setPlaying(false)) : undefined), [playingA]);
 
   const toggle = useCallback(() => {
     if (playing) {
@@ -77,7 +96,7 @@ export function PreviewAudition({ sound, comparisons = [] }: { sound: PreviewSou
 
   return (
     <section aria-label="Audition" className="flex flex-wrap items-center gap-x-3 gap-y-2">
-      <Button onClick={toggle} disabledReason={sound || playingB ? undefined : 'no preview yet'} aria-keyshortcuts="Space">
+      <Button onClick={toggle} disabledReason={(sound && isPlayable(sound)) || playingB ? undefined : 'no preview yet'} aria-keyshortcuts="Space">
         {playing ? '■ Stop' : playingB ? '▶ Play B' : '▶ Play preview'}
       </Button>
       <label className="flex items-center gap-2 text-sm">
