@@ -1,0 +1,73 @@
+/**
+ * The server under measurement in its own process (as `npm start` runs it, on a fresh database with
+ * the demo studio), and what the benchmarks read about it from /proc.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+
+/**
+ * Starts server/main.ts under tsx in a child process on a free port. `nodeArgs` go before the
+ * script (e.g. `--cpu-prof --cpu-prof-dir=…` to profile the server).
+ */
+export function startBenchServer(nodeArgs: string[] = []): Promise<{ child: ChildProcess; port: number }> {
+  const dir = mkdtempSync(join(tmpdir(), 'tautline-collab-bench-'));
+  const env = { ...process.env, DATABASE_PATH: join(dir, 'bench.sqlite'), JWT_SECRET: randomBytes(32).toString('hex'), PORT: '0', SMTP_URL: 'smtp://127.0.0.1:9' };
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/main.ts'], { cwd: ROOT, env });
+    let output = '';
+    child.stdout?.on('data', (chunk: Buffer) => {
+      output += chunk.toString();
+      const match = /listening on http:\/\/localhost:(\d+)/.exec(output);
+      if (match) resolve({ child, port: Number(match[1]) });
+    });
+    child.stderr?.on('data', (chunk: Buffer) => (output += chunk.toString()));
+    child.on('exit', (code) => reject(new Error(`server exited ${code}: ${output}`)));
+  });
+}
+
+/** Stops the server and waits for it to exit (SIGINT lets `--cpu-prof` write its profile). */
+export function stopBenchServer(child: ChildProcess, signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
+  if (child.exitCode !== null) return Promise.resolve();
+  return new Promise((resolve) => {
+    child.removeAllListeners('exit');
+    child.once('exit', () => resolve());
+    child.kill(signal);
+  });
+}
+
+/** CPU seconds (all threads) and resident memory of a process, from /proc (Linux). */
+export function processStats(pid: number): { cpuS: number; rssMB: number } {
+  const stat = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+  const ticks = Number(stat[11]) + Number(stat[12]);
+  const rssPages = Number(readFileSync(`/proc/${pid}/statm`, 'utf8').split(' ')[1]);
+  return { cpuS: ticks / 100, rssMB: (rssPages * 4096) / 2 ** 20 };
+}
+
+/** Busy CPU seconds of the whole machine, all cores together (from /proc/stat; Linux): to see what other processes took. */
+export function machineBusyS(): number {
+  const fields = readFileSync('/proc/stat', 'utf8').split('\n')[0].trim().split(/\s+/).slice(1).map(Number);
+  const [user, nice, system, idle, iowait, irq, softirq, steal] = fields;
+  void idle;
+  void iowait;
+  return (user + nice + system + irq + softirq + steal) / 100;
+}
+
+/** The p-th percentile (nearest rank) of `values`; NaN when there are none. */
+export function percentile(values: readonly number[], p: number): number {
+  if (values.length === 0) return NaN;
+  const sorted = [...values].sort((a, b) => a - b);
+  return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))];
+}
+
+export const round = (value: number) => Math.round(value * 100) / 100;
+
+/** p50, p95 and p99 of a list of milliseconds, rounded, with the sample count. */
+export function latencySummary(values: readonly number[]): { samples: number; p50: number; p95: number; p99: number } {
+  return { samples: values.length, p50: round(percentile(values, 50)), p95: round(percentile(values, 95)), p99: round(percentile(values, 99)) };
+}

@@ -1,0 +1,144 @@
+/**
+ * A simulated editor for load: the live document over a hand-spoken y-websocket protocol and the
+ * compute channel over socket.io, as a browser tab holds them, without the web app's per-frame
+ * patch validation, so a few hundred fit in the benchmark's process. It drags one point of the
+ * displacement and stamps each edit, and records:
+ * - propagation: how long a teammate's stamped edit took to reach it;
+ * - compute: how long its own edit took to come back as a mode table that covers it (the table's
+ *   Yjs state vector includes the edit), decoded as the browser decodes it.
+ */
+import * as decoding from 'lib0/decoding';
+import * as encoding from 'lib0/encoding';
+import { io, type Socket } from 'socket.io-client';
+import WebSocket from 'ws';
+import * as syncProtocol from 'y-protocols/sync';
+import * as Y from 'yjs';
+import { movePoint } from '../../shared/collab/point-edits';
+import { patchDoc } from '../../shared/collab/patch-doc';
+import { COMPUTE_EVENTS, PROTOCOL_VERSION } from '../../shared/protocol/compute-protocol';
+import { decodeModeTable } from '../../shared/protocol/mode-table-wire';
+import type { ClientToServerEvents, ServerToClientEvents } from '../../shared/protocol/socket-events';
+
+const MESSAGE_SYNC = 0;
+const FROM_SERVER = 'server';
+
+export interface LightEditorOptions {
+  baseUrl: string;
+  sessionId: string;
+  token: string;
+  /** This editor's place in its session (0…editors−1): the point it drags and its stamp's key. */
+  index: number;
+  editors: number;
+}
+
+/** The stamp key of editor `index`: the time it made its latest edit, by this process's clock. */
+export const stampKey = (index: number) => `bench-stamp-${index}`;
+
+export class LightEditor {
+  readonly doc = new Y.Doc();
+  readonly propagationMs: number[] = [];
+  readonly computeMs: number[] = [];
+  readonly tableBytes: number[] = [];
+  tables = 0;
+  edits = 0;
+  /** Edits still waiting for a table that covers them: the document clock after each, and when it was made. */
+  private readonly waiting: Array<{ clock: number; at: number }> = [];
+  private readonly seenStamps = new Map<string, number>();
+  private readonly socket: WebSocket;
+  private readonly compute: Socket<ServerToClientEvents, ClientToServerEvents>;
+  readonly synced: Promise<void>;
+  readonly firstTable: Promise<void>;
+  /** Measurements are kept only while recording (not during warm-up). */
+  recording = false;
+
+  constructor(private readonly options: LightEditorOptions) {
+    const { baseUrl, sessionId, token } = options;
+    const doc = this.doc;
+    this.socket = new WebSocket(`${baseUrl.replace(/^http/, 'ws')}/collab/${sessionId}?token=${encodeURIComponent(token)}`);
+    this.socket.binaryType = 'arraybuffer';
+    let markSynced: () => void = () => {};
+    this.synced = new Promise((resolve) => (markSynced = resolve));
+    this.socket.on('open', () => {
+      const encoder = encoding.createEncoder();
+      encoding.writeVarUint(encoder, MESSAGE_SYNC);
+      syncProtocol.writeSyncStep1(encoder, doc);
+      this.socket.send(encoding.toUint8Array(encoder));
+    });
+    this.socket.on('message', (data: ArrayBuffer) => {
+      const decoder = decoding.createDecoder(new Uint8Array(data));
+      if (decoding.readVarUint(decoder) !== MESSAGE_SYNC) return; // presence: not needed here
+      const encoder = encoding.createEncoder();
+      encoding.writeVarUint(encoder, MESSAGE_SYNC);
+      const kind = syncProtocol.readSyncMessage(decoder, encoder, doc, FROM_SERVER);
+      if (encoding.length(encoder) > 1) this.socket.send(encoding.toUint8Array(encoder));
+      if (kind === syncProtocol.messageYjsSyncStep2) markSynced();
+    });
+    doc.on('update', (update: Uint8Array, origin: unknown) => {
+      if (origin === FROM_SERVER) return this.onRemote();
+      // Our own edit: straight to the server, as y-websocket does.
+      const encoder = encoding.createEncoder();
+      encoding.writeVarUint(encoder, MESSAGE_SYNC);
+      syncProtocol.writeUpdate(encoder, update);
+      this.socket.send(encoding.toUint8Array(encoder));
+    });
+
+    this.compute = io(baseUrl, { path: '/socket.io/', transports: ['websocket'], auth: { token } });
+    let markTable: () => void = () => {};
+    this.firstTable = new Promise((resolve) => (markTable = resolve));
+    this.compute.on('connect', () => this.compute.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId }));
+    this.compute.on(COMPUTE_EVENTS.table, (message) => {
+      const now = performance.now();
+      const decoded = decodeModeTable(message.table);
+      if (!decoded.ok) throw new Error(`bench: a table did not decode: ${decoded.reason}`);
+      markTable();
+      const covered = Y.decodeStateVector(decoded.table.stateVector).get(doc.clientID) ?? 0;
+      let done = 0;
+      while (done < this.waiting.length && this.waiting[done].clock <= covered) {
+        if (this.recording) this.computeMs.push(now - this.waiting[done].at);
+        done++;
+      }
+      this.waiting.splice(0, done);
+      if (!this.recording) return;
+      this.tables++;
+      this.tableBytes.push((message.table as { byteLength: number }).byteLength);
+    });
+  }
+
+  private onRemote(): void {
+    if (!this.recording) return;
+    const now = performance.now();
+    const extras = patchDoc(this.doc).extras;
+    for (let other = 0; other < this.options.editors; other++) {
+      if (other === this.options.index) continue;
+      const key = stampKey(other);
+      const sent = extras.get(key) as number | undefined;
+      if (sent === undefined || this.seenStamps.get(key) === sent) continue;
+      this.seenStamps.set(key, sent);
+      this.propagationMs.push(now - sent);
+    }
+  }
+
+  /** Moves this editor's point to phase `t` (seconds) of its drag, with a stamp, as one edit. */
+  drag(t: number): void {
+    const { index, editors } = this.options;
+    const doc = this.doc;
+    const parts = patchDoc(doc);
+    const lengthM = parts.string.get('lengthM') as number;
+    const centreM = (lengthM * (index + 1)) / (editors + 1);
+    const at = performance.now();
+    doc.transact(() => {
+      movePoint(doc, 'displacement', index + 1, centreM + 0.01 * Math.sin(t * 3 + index), 0.002 + 0.001 * Math.sin(t * 5 + index));
+      parts.extras.set(stampKey(index), at);
+    });
+    this.edits++;
+    this.waiting.push({ clock: Y.getState(doc.store, doc.clientID), at });
+    // A table never came for very old edits (the gate refused one, say): forget them rather than grow.
+    if (this.waiting.length > 256) this.waiting.splice(0, this.waiting.length - 256);
+  }
+
+  close(): void {
+    this.compute.disconnect();
+    this.socket.close();
+    this.doc.destroy();
+  }
+}
