@@ -23,6 +23,10 @@ export default defineConfig({
     outDir: 'dist',
     emptyOutDir: true,
   },
+  // The synthesis worker (src/lib/synthesis/synthesis-worker.ts) is a module worker that imports shared code.
+  worker: {
+    format: 'es',
+  },
   test: {
     include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'],
     environment: 'node',

@@ -33,6 +33,8 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
     helmet({
       contentSecurityPolicy: {
         directives: {
+          // The synthesis worker compiles the mode kernel (WebAssembly); nothing else is evaluated.
+          'script-src': ["'self'", "'wasm-unsafe-eval'"],
           'worker-src': ["'self'", 'blob:'],
           'media-src': ["'self'", 'blob:', 'data:'],
           'connect-src': ["'self'", 'ws:', 'wss:'],

@@ -1,5 +1,5 @@
 import FFT from 'fft.js';
-import type { Decibels, Hertz, Seconds } from '../../../../shared/units';
+import type { Decibels, Hertz, Seconds } from '../../../shared/units';
 
 /** The longest transform the spectrum runs: 2^16 points, about 1.4 s at 48 kHz. */
 export const SPECTRUM_MAX_FFT_SIZE = 2 ** 16;

@@ -1,4 +1,4 @@
-import type { Decibels, Hertz, Seconds } from '../../../../shared/units';
+import type { Decibels, Hertz, Seconds } from '../../../shared/units';
 
 /** Blocks quieter than this are written as this level. */
 export const ENVELOPE_FLOOR_DB: Decibels = -120;

@@ -1,20 +1,18 @@
-import { useMemo } from 'react';
-import { previewBankFromWire, renderBankChunk } from '../../../shared/engine/table-synthesis';
-import { renderBank } from '../../../shared/engine/render-bank';
+import { useEffect, useSyncExternalStore } from 'react';
 import type { ComputeResult } from '../live-session/session-connection';
+import { useSynthesisClient } from './page-synthesis';
 import type { PreviewSound } from './preview-sound';
 
-/** The preview of the latest mode table, synthesised in the browser from the table. */
+/**
+ * The preview of the latest mode table, synthesised from the table in the page's synthesis worker
+ * and delivered progressively: the first 250 ms as soon as they exist (`readySamples` grows, then
+ * `complete`), then the charts' data (`analysis`). The page does no per-sample work.
+ */
 export function usePreviewSound(result: ComputeResult | null): PreviewSound | null {
-  return useMemo(() => {
-    if (!result) return null;
-    const bank = previewBankFromWire(result.wire, result);
-    const physical = renderBankChunk(bank, 0, bank.sampleCount, renderBank);
-    let peak = 0;
-    for (let i = 0; i < physical.length; i++) peak = Math.max(peak, Math.abs(physical[i]));
-    const gain = peak > 0 ? 1 / peak : 0;
-    const samples = new Float32Array(physical.length);
-    for (let i = 0; i < physical.length; i++) samples[i] = physical[i] * gain;
-    return { sequence: result.sequence, sampleRateHz: result.wire.preview.sampleRateHz, samples, readySamples: samples.length, complete: true, physicalPeak: peak };
-  }, [result]);
+  const client = useSynthesisClient();
+  useEffect(() => {
+    if (result) client.submit(result);
+  }, [client, result]);
+  const sound = useSyncExternalStore(client.subscribe, client.getSnapshot, client.getSnapshot);
+  return result ? sound : null;
 }

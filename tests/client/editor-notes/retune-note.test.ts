@@ -4,7 +4,7 @@ import { midiToFrequencyHz } from '../../../shared/designer/pitch';
 import { retunePatch } from '../../../shared/designer/retune-patch';
 import { modeFrequencyHz } from '../../../shared/engine/mode-frequencies';
 import { validatePatch } from '../../../shared/patch/validate-patch';
-import { renderNote, NOTE_DURATION_S, NOTE_PEAK } from '../../../src/features/editor/notes/render-note';
+import { renderNote, NOTE_DURATION_S, NOTE_PEAK } from '../../../src/lib/synthesis/note-render';
 import { testPatch } from '../../support/patches';
 
 const patch = (() => {

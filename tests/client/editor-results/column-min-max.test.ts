@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { columnMinMax } from '../../../src/features/editor/results/column-min-max';
+import { columnMinMax } from '../../../src/lib/synthesis/column-min-max';
 import { logColumnMax } from '../../../src/features/editor/results/log-column-max';
 
 describe('columnMinMax', () => {

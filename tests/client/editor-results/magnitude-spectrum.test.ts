@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { hannWindow, magnitudeSpectrum, spectrumFftSize, spectrumPeakHz, SPECTRUM_MAX_FFT_SIZE } from '../../../src/features/editor/results/magnitude-spectrum';
+import { hannWindow, magnitudeSpectrum, spectrumFftSize, spectrumPeakHz, SPECTRUM_MAX_FFT_SIZE } from '../../../src/lib/synthesis/magnitude-spectrum';
 import { twoDecayingSines } from './synthetic-result';
 
 function sine(frequencyHz: number, sampleRateHz: number, count: number): Float32Array {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { envelopeBlockS, rmsEnvelope } from '../../../src/features/editor/results/rms-envelope';
+import { envelopeBlockS, rmsEnvelope } from '../../../src/lib/synthesis/rms-envelope';
 
 describe('rmsEnvelope', () => {
   it('reads a steady sine of peak 1 as 0 dB (sine-peak level, 20·log10(√2·RMS))', () => {

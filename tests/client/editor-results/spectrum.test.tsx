@@ -2,7 +2,7 @@
 import { cleanup, render, screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, it } from 'vitest';
 import { Spectrum } from '../../../src/features/editor/results/spectrum';
-import { syntheticResult, TENSION_ISSUE } from './synthetic-result';
+import { syntheticResult, syntheticSound, TENSION_ISSUE } from './synthetic-result';
 
 afterEach(cleanup);
 
@@ -13,7 +13,7 @@ function pathPoints(d: string): Array<[number, number]> {
 
 describe('spectrum', () => {
   it('draws the preview’s spectrum with titled axes and a summary naming its strongest frequency (220 Hz)', () => {
-    const { container } = render(<Spectrum result={syntheticResult()} issues={[]} />);
+    const { container } = render(<Spectrum result={syntheticResult()} sound={syntheticSound()} issues={[]} />);
     const figure = screen.getByRole('figure', { name: 'Spectrum' });
     expect(within(figure).getByText('frequency (Hz, log)')).toBeTruthy();
     expect(within(figure).getByText('level (dB re max)')).toBeTruthy();
@@ -28,7 +28,7 @@ describe('spectrum', () => {
   });
 
   it('draws one point per pixel column, not one per bin, with its peak column at 220 Hz', () => {
-    const { container } = render(<Spectrum result={syntheticResult()} issues={[]} />);
+    const { container } = render(<Spectrum result={syntheticResult()} sound={syntheticSound()} issues={[]} />);
     const points = pathPoints(container.querySelector('[data-spectrum-curve]')?.getAttribute('d') ?? '');
     // 640 px wide (the fallback where nothing lays out) less the margins.
     expect(points.length).toBe(640 - 52 - 14);
@@ -40,35 +40,44 @@ describe('spectrum', () => {
   });
 
   it('marks each mode frequency up to Nyquist as a faint tick', () => {
-    const { container } = render(<Spectrum result={syntheticResult()} issues={[]} />);
+    const { container } = render(<Spectrum result={syntheticResult()} sound={syntheticSound()} issues={[]} />);
     const ticks = container.querySelector('[data-mode-ticks]');
     expect(ticks?.getAttribute('data-mode-ticks')).toBe('20');
     expect(Number(ticks?.getAttribute('opacity'))).toBeLessThan(0.5);
     // Modes above the preview's Nyquist frequency (24 kHz) are not marked.
     cleanup();
-    const dense = render(<Spectrum result={syntheticResult({ modeCount: 200 })} issues={[]} />);
+    const dense = render(<Spectrum result={syntheticResult({ modeCount: 200 })} sound={syntheticSound()} issues={[]} />);
     expect(Number(dense.container.querySelector('[data-mode-ticks]')?.getAttribute('data-mode-ticks'))).toBeLessThanOrEqual(109);
   });
 
   it('says when no result has come yet, and when the patch has problems', () => {
-    const { container, rerender } = render(<Spectrum result={null} issues={[]} />);
+    const { container, rerender } = render(<Spectrum result={null} sound={null} issues={[]} />);
     expect(screen.getByText('No result yet')).toBeTruthy();
     expect(screen.getByText('The spectrum appears when the first result arrives.')).toBeTruthy();
-    rerender(<Spectrum result={syntheticResult()} issues={[TENSION_ISSUE]} />);
+    rerender(<Spectrum result={syntheticResult()} sound={syntheticSound()} issues={[TENSION_ISSUE]} />);
     expect(screen.getByText('The patch has problems')).toBeTruthy();
     expect(container.querySelector('svg')).toBeNull();
   });
 
+  it('draws nothing until the worker’s analysis of the complete preview has come', () => {
+    const sound = syntheticSound();
+    const { container, rerender } = render(<Spectrum result={syntheticResult()} sound={{ ...sound, complete: false, readySamples: 12_000, analysis: null }} issues={[]} />);
+    expect(container.querySelector('[data-spectrum-curve]')).toBeNull();
+    rerender(<Spectrum result={syntheticResult()} sound={{ ...sound, analysis: null }} issues={[]} />);
+    expect(container.querySelector('[data-spectrum-curve]')).toBeNull();
+    rerender(<Spectrum result={syntheticResult()} sound={sound} issues={[]} />);
+    expect(container.querySelector('[data-spectrum-curve]')).toBeTruthy();
+  });
+
   it('says so when the preview is silent', () => {
-    const result = { ...syntheticResult(), preview: new Float32Array(4800) };
-    render(<Spectrum result={result} issues={[]} />);
+    render(<Spectrum result={syntheticResult()} sound={syntheticSound({ samples: new Float32Array(4800) })} issues={[]} />);
     expect(screen.getByText('The preview is silent.')).toBeTruthy();
   });
 });
 
 describe('spectrum of a long preview', () => {
   it('analyses the first 2^16 samples of a 2 s preview and says so', () => {
-    render(<Spectrum result={syntheticResult({ durationS: 2 })} issues={[]} />);
+    render(<Spectrum result={syntheticResult({ durationS: 2 })} sound={syntheticSound({ durationS: 2 })} issues={[]} />);
     const figure = screen.getByRole('figure', { name: 'Spectrum' });
     const summary = document.getElementById(figure.getAttribute('aria-describedby') ?? '')?.textContent ?? '';
     expect(summary).toMatch(/^Spectrum of the first 1\.37 s of the preview \(65,536-point transform, Hann window, 0\.732 Hz bins\)/);

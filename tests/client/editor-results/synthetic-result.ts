@@ -1,5 +1,8 @@
 import type { FieldIssue } from '../../../shared/patch/field-issue';
+import { encodeModeTable, type ModeTableWire } from '../../../shared/protocol/mode-table-wire';
 import type { ComputeResult } from '../../../src/lib/live-session/session-connection';
+import { analysePreview } from '../../../src/lib/synthesis/preview-analysis';
+import type { PreviewSound } from '../../../src/lib/synthesis/preview-sound';
 
 export const F0_HZ = 220;
 export const SAMPLE_RATE_HZ = 48000;
@@ -26,8 +29,9 @@ export function twoDecayingSines(durationS = 0.5, sampleRateHz = SAMPLE_RATE_HZ)
 
 /**
  * A result of `modeCount` harmonic modes of 220 Hz with a_n = 1 mm / n² and no initial velocity,
- * so E_n = ¼·μ·L·ω_n²·a_n² falls as 1/n² (a level of −20·log10 n dB), and a preview of two decaying
- * sines at 48 kHz.
+ * so E_n = ¼·μ·L·ω_n²·a_n² falls as 1/n² (a level of −20·log10 n dB). Its table describes the same
+ * string (tension μ(2L·f0)², b2 = 0.05·L²/π² so that σ_n = 0.5 + 0.05·n²) with a preview of
+ * `durationS` at 48 kHz; the preview itself is `syntheticSound`.
  */
 export function syntheticResult({ modeCount = 20, durationS = 0.5 }: { modeCount?: number; durationS?: number } = {}): ComputeResult {
   const frequencyHz = new Float64Array(modeCount);
@@ -44,10 +48,25 @@ export function syntheticResult({ modeCount = 20, durationS = 0.5 }: { modeCount
     decay[m] = decayRatePerS(n);
     totalEnergyJ += energyJ[m];
   }
+  const wire: ModeTableWire = {
+    sequence: 1,
+    documentVersion: 1,
+    stateVector: new Uint8Array(0),
+    string: { lengthM: LENGTH_M, tensionN: LINEAR_DENSITY_KG_PER_M * (2 * LENGTH_M * F0_HZ) ** 2, linearDensityKgPerM: LINEAR_DENSITY_KG_PER_M, inharmonicityB: 0 },
+    damping: { b1PerS: 0.5, b2M2PerS: (0.05 * LENGTH_M * LENGTH_M) / (Math.PI * Math.PI) },
+    pickup: { output: 'displacement', positionM: 0.1 },
+    render: { sampleRateHz: SAMPLE_RATE_HZ, durationS },
+    preview: { sampleRateHz: SAMPLE_RATE_HZ, durationS },
+    totalEnergyJ,
+    computeMs: 12,
+    aM: Float32Array.from(aM),
+    vMPerS: new Float32Array(modeCount),
+  };
   return {
-    type: 'result',
     sessionId: 'session-1',
     sequence: 1,
+    documentVersion: 1,
+    count: modeCount,
     f0Hz: F0_HZ,
     waveSpeedMPerS: 2 * LENGTH_M * F0_HZ,
     totalEnergyJ,
@@ -57,10 +76,26 @@ export function syntheticResult({ modeCount = 20, durationS = 0.5 }: { modeCount
     vMPerS: new Float64Array(modeCount),
     energyJ,
     decayRatePerS: decay,
-    previewSampleRateHz: SAMPLE_RATE_HZ,
-    preview: twoDecayingSines(durationS),
-    previewPhysicalPeak: 1e-3,
     computeMs: 12,
+    wire,
+    byteLength: encodeModeTable(wire).byteLength,
+  };
+}
+
+/**
+ * A complete preview of two decaying sines (`twoDecayingSines`) as the synthesis worker delivers
+ * it, with the charts' data computed as the worker does, the waveform for `columns` pixel columns.
+ */
+export function syntheticSound({ durationS = 0.5, columns = null, samples = twoDecayingSines(durationS) }: { durationS?: number; columns?: number | null; samples?: Float32Array } = {}): PreviewSound {
+  return {
+    sequence: 1,
+    sampleRateHz: SAMPLE_RATE_HZ,
+    samples,
+    readySamples: samples.length,
+    complete: true,
+    physicalPeak: 1e-3,
+    kernel: 'typescript',
+    analysis: analysePreview(samples, SAMPLE_RATE_HZ, F0_HZ, columns),
   };
 }
 

@@ -2,7 +2,7 @@
 import { cleanup, render, screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, it } from 'vitest';
 import { envelopeAmplitude, Waveform } from '../../../src/features/editor/results/waveform';
-import { syntheticResult, TENSION_ISSUE } from './synthetic-result';
+import { syntheticResult, syntheticSound, TENSION_ISSUE } from './synthetic-result';
 
 afterEach(cleanup);
 
@@ -12,7 +12,8 @@ function pathPoints(d: string): Array<[number, number]> {
 
 describe('waveform', () => {
   it('draws the preview as min/max per pixel column on a time axis in seconds, with a summary', () => {
-    const { container } = render(<Waveform result={syntheticResult()} issues={[]} />);
+    // The worker computed the columns for this plot: 640 − 52 − 50 = 538 px wide.
+    const { container } = render(<Waveform result={syntheticResult()} sound={syntheticSound({ columns: 538 })} issues={[]} />);
     const figure = screen.getByRole('figure', { name: 'Waveform' });
     expect(within(figure).getByText('time (s)')).toBeTruthy();
     expect(within(figure).getByText('amplitude (normalised)')).toBeTruthy();
@@ -29,7 +30,7 @@ describe('waveform', () => {
   });
 
   it('draws the decay envelope on top: a falling line on the dB axis', () => {
-    const { container } = render(<Waveform result={syntheticResult()} issues={[]} />);
+    const { container } = render(<Waveform result={syntheticResult()} sound={syntheticSound({ columns: 538 })} issues={[]} />);
     const envelope = pathPoints(container.querySelector('[data-envelope]')?.getAttribute('d') ?? '');
     // 0.5 s in blocks of two periods of 220 Hz (436 samples at 48 kHz): 55 whole blocks; the last 20
     // samples are too few for a steady RMS and are left out.
@@ -37,6 +38,17 @@ describe('waveform', () => {
     const first = envelope[1][1];
     const last = envelope[envelope.length - 1][1];
     expect(last).toBeGreaterThan(first); // lower on screen: quieter
+  });
+
+  it('stretches the columns it has across the plot until the worker sends this width’s, and draws nothing before any', () => {
+    const { container, rerender } = render(<Waveform result={syntheticResult()} sound={syntheticSound({ columns: null })} issues={[]} />);
+    expect(container.querySelector('[data-waveform]')?.getAttribute('d')).toBe('');
+    // 269 columns over 538 px: two pixels each, the first centred at 52 + 1, the last at 52 + 537.
+    rerender(<Waveform result={syntheticResult()} sound={syntheticSound({ columns: 269 })} issues={[]} />);
+    const points = pathPoints(container.querySelector('[data-waveform]')?.getAttribute('d') ?? '');
+    expect(points.length).toBe(2 * 269);
+    expect(points[0][0]).toBeCloseTo(53, 5);
+    expect(points[268][0]).toBeCloseTo(52 + 537, 5);
   });
 
   it('maps 0 dB to the top and −60 dB to the centre line', () => {
@@ -47,9 +59,9 @@ describe('waveform', () => {
   });
 
   it('says when no result has come yet, and when the patch has problems', () => {
-    const { container, rerender } = render(<Waveform result={null} issues={[]} />);
+    const { container, rerender } = render(<Waveform result={null} sound={null} issues={[]} />);
     expect(screen.getByText('No result yet')).toBeTruthy();
-    rerender(<Waveform result={null} issues={[TENSION_ISSUE]} />);
+    rerender(<Waveform result={null} sound={null} issues={[TENSION_ISSUE]} />);
     expect(screen.getByText('The patch has problems')).toBeTruthy();
     expect(screen.getByText('The waveform returns once they are fixed.')).toBeTruthy();
     expect(container.querySelector('svg')).toBeNull();

@@ -4,14 +4,15 @@ import { fundamentalFrequencyHz } from '../../../../shared/engine/mode-frequenci
 import type { Patch } from '../../../../shared/patch/patch-schema';
 import { Button } from '../../../components/button';
 import { cautionSeen, playSamples } from '../../../lib/audio-output';
-import { renderNote } from '../notes/render-note';
+import { useSynthesisClient } from '../../../lib/synthesis/page-synthesis';
 
 const BLACK = new Set([1, 3, 6, 8, 10]);
 type MidiState = 'off' | 'asking' | 'unsupported' | 'no-device' | 'denied' | { inputs: number };
 
 /**
  * Plays the session's string at other pitches: each note retuned by its tension and rendered by
- * the engine in the browser, from the on-screen keys or a MIDI keyboard (Web MIDI).
+ * the engine in the page's synthesis worker (the preview's kernel), from the on-screen keys or a
+ * MIDI keyboard (Web MIDI).
  */
 export function NoteKeyboard({ patch }: { patch: Patch }) {
   const root = Math.round(frequencyHzToMidi(fundamentalFrequencyHz(patch.string)));
@@ -20,11 +21,12 @@ export function NoteKeyboard({ patch }: { patch: Patch }) {
   const [midi, setMidi] = useState<MidiState>('off');
   const patchRef = useRef(patch);
   patchRef.current = patch;
+  const synthesis = useSynthesisClient();
 
   const play = async (note: number) => {
     if (!cautionSeen()) return setPlayed('Press “Play preview” once first to confirm a safe level.');
     const started = performance.now();
-    const rendered = renderNote(patchRef.current, note);
+    const rendered = await synthesis.renderNote(patchRef.current, note);
     if ('error' in rendered) return setPlayed(`Cannot play ${midiToNoteName(note)}: ${rendered.error}`);
     const renderMs = performance.now() - started;
     await playSamples(rendered.samples, rendered.sampleRateHz);

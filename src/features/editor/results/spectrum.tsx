@@ -6,13 +6,13 @@ import { BottomAxis, SideAxis, type ChartMargins } from './chart-axes';
 import { ChartFrame, resultsState } from './chart-frame';
 import { frequencyTickLabel, linearScale, logScale, logTicks } from './chart-scales';
 import { logColumnMax } from './log-column-max';
-import { magnitudeSpectrum, spectrumPeakHz } from './magnitude-spectrum';
+import { spectrumPeakHz, type MagnitudeSpectrum } from '../../../lib/synthesis/magnitude-spectrum';
 import { formatCount, formatHz } from './quantity-format';
 import { MINUS } from './si-prefix';
 
 export interface SpectrumProps {
   result: ComputeResult | null;
-  /** The preview synthesised from the result (its spectrum is drawn once it is complete). */
+  /** The preview synthesised from the result (its spectrum, computed by the synthesis worker, is drawn once it is complete). */
   sound: PreviewSound | null;
   issues: FieldIssue[];
   /** Fill the parent's height (a workbench pane) instead of the fixed height. */
@@ -35,13 +35,13 @@ function levelTickLabel(levelDb: number): string {
 /**
  * The magnitude spectrum of the preview, in dB relative to its strongest bin, on a log frequency
  * axis from 20 Hz to the preview's Nyquist frequency. The mode table's frequencies are marked by
- * faint ticks along the top, so one sees which partials the pickup hears. The transform is done once per result;
- * each pixel column draws the largest bin it covers.
+ * faint ticks along the top, so one sees which partials the pickup hears. The transform is done
+ * once per result, in the synthesis worker; here each pixel column draws the largest bin it covers.
  */
 export const Spectrum = memo(function Spectrum({ result, sound, issues, fill = false }: SpectrumProps) {
   const state = resultsState(result, issues);
   const preview = sound?.complete ? sound : null;
-  const spectrum = useMemo(() => (preview ? magnitudeSpectrum(preview.samples, preview.sampleRateHz) : null), [preview]);
+  const spectrum = preview?.analysis?.spectrum ?? null;
   const summary =
     result && spectrum
       ? spectrum.silent || spectrum.analysedSampleCount === 0
@@ -61,7 +61,7 @@ export const Spectrum = memo(function Spectrum({ result, sound, issues, fill = f
 interface SpectrumPlotProps {
   result: ComputeResult;
   nyquistHz: number;
-  spectrum: ReturnType<typeof magnitudeSpectrum>;
+  spectrum: MagnitudeSpectrum;
   widthPx: number;
   heightPx: number;
 }

@@ -5,14 +5,14 @@ import type { PreviewSound } from '../../../lib/synthesis/preview-sound';
 import { BottomAxis, SideAxis, type ChartMargins } from './chart-axes';
 import { ChartFrame, resultsState } from './chart-frame';
 import { linearScale, linearTicks } from './chart-scales';
-import { columnMinMax } from './column-min-max';
+import type { WaveformColumns } from '../../../lib/synthesis/preview-analysis';
+import { useWaveformRequest } from '../../../lib/synthesis/use-waveform-request';
 import { formatDb } from './quantity-format';
-import { envelopeBlockS, rmsEnvelope } from './rms-envelope';
 import { MINUS } from './si-prefix';
 
 export interface WaveformProps {
   result: ComputeResult | null;
-  /** The preview synthesised from the result (drawn once it is complete). */
+  /** The preview synthesised from the result (drawn once it is complete, from the columns and envelope the synthesis worker computed). */
   sound: PreviewSound | null;
   issues: FieldIssue[];
   /** Fill the parent's height (a workbench pane) instead of the fixed height. */
@@ -38,57 +38,63 @@ function signedLabel(value: number): string {
  * The preview as a waveform: each pixel column shows the lowest and highest sample it covers, so no
  * peak is lost. On top, its decay envelope: the RMS over blocks of two periods of f0, in dB (read on
  * the right-hand axis, 0 dB at the top and −60 dB on the centre line), where an exponential decay is
- * a straight line.
+ * a straight line. The synthesis worker computes both for the plot's width (asked for when the width
+ * changes); until the new width's columns arrive, the ones it has are stretched across the plot.
  */
 export const Waveform = memo(function Waveform({ result, sound, issues, fill = false }: WaveformProps) {
   const state = resultsState(result, issues);
   const preview = sound?.complete ? sound : null;
+  const analysis = preview?.analysis ?? null;
   const durationS = preview ? preview.samples.length / preview.sampleRateHz : 0;
-  const wholeEnvelope = useMemo(() => (result && preview ? rmsEnvelope(preview.samples, preview.sampleRateHz, envelopeBlockS(result.f0Hz, durationS, 0)) : null), [result, preview, durationS]);
   let summary: string | null = null;
-  if (result && wholeEnvelope) {
-    const levels = wholeEnvelope.levelDb;
+  if (result && analysis) {
+    const levels = analysis.envelope.levelDb;
     summary =
       levels.length === 0
         ? 'The preview is empty.'
         : `${durationS.toFixed(2)} s of the preview at ${((preview?.sampleRateHz ?? 0) / 1000).toLocaleString('en')} kHz, normalised to its peak. ` +
-          `The envelope falls from ${formatDb(Math.max(...levels))} to ${formatDb(levels[levels.length - 1])}.`;
+          `The envelope falls from ${formatDb(levels.reduce((a, b) => Math.max(a, b), -Infinity))} to ${formatDb(levels[levels.length - 1])}.`;
   }
   return (
     <ChartFrame title="Waveform" subject="the waveform" summary={summary} state={state} heightPx={fill ? undefined : HEIGHT_PX}>
-      {(widthPx, heightPx) => (result && preview ? <WaveformPlot result={result} preview={preview} durationS={durationS} widthPx={widthPx} heightPx={heightPx} /> : null)}
+      {(widthPx, heightPx) => (result && preview && analysis ? <WaveformPlot sound={preview} waveform={analysis.waveform} durationS={durationS} widthPx={widthPx} heightPx={heightPx} /> : null)}
     </ChartFrame>
   );
 });
 
-function WaveformPlot({ result, preview, durationS, widthPx, heightPx }: { result: ComputeResult; preview: PreviewSound; durationS: number; widthPx: number; heightPx: number }) {
+function WaveformPlot({ sound, waveform, durationS, widthPx, heightPx }: { sound: PreviewSound; waveform: WaveformColumns | null; durationS: number; widthPx: number; heightPx: number }) {
   const plotRight = Math.max(MARGINS.left + 10, widthPx - MARGINS.right);
   const plotBottom = heightPx - MARGINS.bottom;
   const columns = Math.max(1, Math.round(plotRight - MARGINS.left));
+  useWaveformRequest(sound, columns);
   const x = useMemo(() => linearScale([0, durationS > 0 ? durationS : 1], [MARGINS.left, plotRight]), [durationS, plotRight]);
   const y = useMemo(() => linearScale([-1, 1], [plotBottom, MARGINS.top]), [plotBottom]);
 
   const wave = useMemo(() => {
-    const { min, max } = columnMinMax(preview.samples, columns);
+    if (!waveform || waveform.columns === 0 || sound.samples.length === 0) return '';
+    const { min, max } = waveform;
+    // One point per column the worker computed: exactly one per pixel once it has this width.
+    const step = columns / waveform.columns;
     const upper: string[] = [];
     const lower: string[] = [];
-    for (let c = 0; c < columns; c++) {
-      const px = (MARGINS.left + c + 0.5).toFixed(1);
+    for (let c = 0; c < waveform.columns; c++) {
+      const px = (MARGINS.left + (c + 0.5) * step).toFixed(1);
       upper.push(`${c === 0 ? 'M' : 'L'}${px} ${y(max[c]).toFixed(1)}`);
       // A column whose samples are all equal still gets a hairline.
       lower.push(`L${px} ${(y(min[c]) + (max[c] === min[c] ? 0.5 : 0)).toFixed(1)}`);
     }
-    return columns > 0 && preview.samples.length > 0 ? `${upper.join('')}${lower.reverse().join('')}Z` : '';
-  }, [preview, columns, y]);
+    return `${upper.join('')}${lower.reverse().join('')}Z`;
+  }, [waveform, sound, columns, y]);
 
   const envelope = useMemo(() => {
-    const { timeS, levelDb } = rmsEnvelope(preview.samples, preview.sampleRateHz, envelopeBlockS(result.f0Hz, durationS, columns));
+    if (!waveform) return '';
+    const { timeS, levelDb } = waveform.envelope;
     const parts: string[] = [];
     for (let block = 0; block < timeS.length; block++) {
       parts.push(`${block === 0 ? 'M' : 'L'}${x(timeS[block]).toFixed(1)} ${y(envelopeAmplitude(levelDb[block])).toFixed(1)}`);
     }
     return parts.join('');
-  }, [result, preview, durationS, columns, x, y]);
+  }, [waveform, x, y]);
 
   const timeTicks = linearTicks(x.domain, Math.max(2, Math.floor(columns / 70)));
   const dbScale = linearScale([-ENVELOPE_RANGE_DB, 0], [y(0), y(1)]);
