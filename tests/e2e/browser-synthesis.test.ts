@@ -10,7 +10,7 @@ import type { Patch } from '../../shared/patch/patch-schema';
 import { renderNote } from '../../src/lib/synthesis/note-render';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { startE2eHarness, type E2eHarness } from '../support/e2e-harness';
-import { openSessionFromList } from '../support/e2e-demo-pages';
+import { openSessionFromList, screenshotsForReview } from '../support/e2e-demo-pages';
 import { peakRelativeDifference } from '../support/signal-difference';
 
 /**
@@ -118,6 +118,22 @@ describe('synthesis in the browser', () => {
     const samples = await samplesOut(page, `window.__synthesisTap.previews[${job}].samples`);
     expect(samples.length).toBe(rendered.length);
     expect(peakRelativeDifference(rendered.map((value) => value / peak), samples)).toBeLessThan(1e-6);
+
+    // The charts draw what the worker computed: the spectrum, and the waveform at the plot's own width (asked of the worker).
+    await page.getByRole('tab', { name: 'Spectrum' }).click();
+    await page.locator('[data-spectrum-curve]').waitFor();
+    await page.getByRole('tab', { name: 'Waveform' }).click();
+    const waveformColumns = () =>
+      page.evaluate(`(() => {
+        const path = document.querySelector('[data-waveform]');
+        const svg = path && path.closest('svg');
+        if (!path || !svg) return null;
+        return { points: (path.getAttribute('d') || '').split(/[ML]/).length - 1, plotColumns: Math.round(Number(svg.getAttribute('width')) - 52 - 50) };
+      })()`) as Promise<{ points: number; plotColumns: number } | null>;
+    await expect.poll(async () => { const seen = await waveformColumns(); return seen !== null && seen.points === 2 * seen.plotColumns; }, { timeout: 10_000 }).toBe(true);
+    await screenshotsForReview(page, 'browser-synthesis-waveform');
+    // The resized plot asks the worker again.
+    await expect.poll(async () => { const seen = await waveformColumns(); return seen !== null && seen.points === 2 * seen.plotColumns; }, { timeout: 10_000 }).toBe(true);
 
     // A note from the keys: rendered by the same worker and kernel, equal to the engine's note in Node.
     await page.getByRole('tab', { name: 'Notes' }).click();
