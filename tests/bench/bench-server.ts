@@ -41,12 +41,19 @@ export function stopBenchServer(child: ChildProcess, signal: NodeJS.Signals = 'S
   });
 }
 
-/** CPU seconds (all threads) and resident memory of a process, from /proc (Linux). */
-export function processStats(pid: number): { cpuS: number; rssMB: number } {
-  const stat = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
-  const ticks = Number(stat[11]) + Number(stat[12]);
+/** User + system CPU seconds in a /proc stat file (a process's, or one thread's). */
+function statCpuS(path: string): number {
+  const stat = readFileSync(path, 'utf8').split(') ')[1].split(' ');
+  return (Number(stat[11]) + Number(stat[12])) / 100;
+}
+
+/**
+ * CPU seconds of a process (all threads) and of its main thread alone (the event loop: what one
+ * server can do at most is one core of it), and its resident memory, from /proc (Linux).
+ */
+export function processStats(pid: number): { cpuS: number; mainThreadCpuS: number; rssMB: number } {
   const rssPages = Number(readFileSync(`/proc/${pid}/statm`, 'utf8').split(' ')[1]);
-  return { cpuS: ticks / 100, rssMB: (rssPages * 4096) / 2 ** 20 };
+  return { cpuS: statCpuS(`/proc/${pid}/stat`), mainThreadCpuS: statCpuS(`/proc/${pid}/task/${pid}/stat`), rssMB: (rssPages * 4096) / 2 ** 20 };
 }
 
 /** Busy CPU seconds of the whole machine, all cores together (from /proc/stat; Linux): to see what other processes took. */

@@ -31,6 +31,14 @@ export interface LightEditorOptions {
   editors: number;
 }
 
+/**
+ * How far a table's state vector covers one client's edits (its next clock); 0 when the table came
+ * with no state vector (computed from storage before the live document opened).
+ */
+export function coveredClock(stateVector: Uint8Array, clientId: number): number {
+  return stateVector.length === 0 ? 0 : (Y.decodeStateVector(stateVector).get(clientId) ?? 0);
+}
+
 /** The stamp key of editor `index`: the time it made its latest edit, by this process's clock. */
 export const stampKey = (index: number) => `bench-stamp-${index}`;
 
@@ -91,7 +99,7 @@ export class LightEditor {
       const decoded = decodeModeTable(message.table);
       if (!decoded.ok) throw new Error(`bench: a table did not decode: ${decoded.reason}`);
       markTable();
-      const covered = Y.decodeStateVector(decoded.table.stateVector).get(doc.clientID) ?? 0;
+      const covered = coveredClock(decoded.table.stateVector, doc.clientID);
       let done = 0;
       while (done < this.waiting.length && this.waiting[done].clock <= covered) {
         if (this.recording) this.computeMs.push(now - this.waiting[done].at);
