@@ -37,9 +37,9 @@ const subscribedOf = (socket: AppSocket) => socket.data.sessions;
 interface SessionCompute {
   scheduler: ComputeScheduler;
   sequence: number;
-  /** The last message sent, and the document version it was computed for. */
+  /** The last message sent, and the physics of the patch a table was computed for (null for an invalid patch). */
   latest: ModeTableMessage | InvalidMessage | null;
-  latestVersion: number;
+  latestKey: string | null;
   /** Tables of the last few distinct patches (by their physics), so undo or a rename costs no compute. */
   tables: Map<string, Uint8Array>;
 }
@@ -116,7 +116,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
       const created: SessionCompute = {
         sequence: 0,
         latest: null,
-        latestVersion: -1,
+        latestKey: null,
         tables: new Map(),
         scheduler: new ComputeScheduler(async () => {
           const sequence = ++created.sequence;
@@ -129,7 +129,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
             const invalid: InvalidMessage = { type: 'invalid', sessionId, sequence, issues: patch.issues };
             return () => {
               created.latest = invalid;
-              created.latestVersion = documentVersion;
+              created.latestKey = null;
               io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.invalid, invalid);
             };
           }
@@ -145,7 +145,7 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
           const message: ModeTableMessage = { type: 'table', sessionId, table };
           return () => {
             created.latest = message;
-            created.latestVersion = documentVersion;
+            created.latestKey = key;
             counts.tablesSent++;
             io.to(roomOf(sessionId)).emit(COMPUTE_EVENTS.table, message);
           };
@@ -177,14 +177,19 @@ export function attachComputeChannel(httpServer: HttpServer, context: AppContext
         subscribedOf(socket).set(sessionId, { studioId: access.studioId, readOnly: access.readOnly, role: access.role });
         socket.emit(COMPUTE_EVENTS.joined, { type: 'joined', sessionId, role: access.role, readOnly: access.readOnly, archived: access.archived } satisfies JoinedMessage);
         const entry = computeFor(sessionId);
-        // The last table is sent at once when the document has not changed since; otherwise a fresh one follows.
-        if (entry.latest && !entry.scheduler.busy && entry.latestVersion === (hub.room(sessionId)?.version ?? 0)) {
-          if (entry.latest.type === 'table') {
+        // The last table is sent at once when the patch's physics are still what it was computed for;
+        // otherwise a fresh one follows. The patch is read again: it may have been replaced in storage
+        // while no live document was open, which no document version shows.
+        const latest = entry.latest;
+        if (latest?.type === 'table' && !entry.scheduler.busy) {
+          const patch = await currentPatch(sessionId);
+          if (patch.ok && physicsKey(patch.value) === entry.latestKey && entry.latest === latest && !entry.scheduler.busy && subscribedOf(socket).has(sessionId)) {
             counts.tablesSent++;
-            socket.emit(COMPUTE_EVENTS.table, entry.latest);
+            socket.emit(COMPUTE_EVENTS.table, latest);
+            return;
           }
-          else socket.emit(COMPUTE_EVENTS.invalid, entry.latest);
-        } else entry.scheduler.schedule();
+        }
+        entry.scheduler.schedule();
       } catch (error) {
         context.log(`compute: subscribe failed: ${(error as Error).message}`);
       }

@@ -15,7 +15,7 @@ import { eventually, openClient, waitForSnapshot } from '../support/collab-clien
 import { openRawCollabClient } from '../support/raw-collab-client';
 import { runCli } from '../support/run-cli';
 import { createStudioFixture, type StudioFixture } from '../support/studio-fixture';
-import { registerUser, startLiveTestServer, type LiveTestServer } from '../support/test-server';
+import { as, registerUser, startLiveTestServer, type LiveTestServer } from '../support/test-server';
 
 let server: LiveTestServer;
 let fixture: StudioFixture;
@@ -146,7 +146,7 @@ interface TableWatch {
 
 const watches: TableWatch[] = [];
 
-async function watchTables(token: string): Promise<TableWatch> {
+async function watchTables(token: string, sessionId = fixture.sessionId): Promise<TableWatch> {
   const socket: ClientSocket<ServerToClientEvents, ClientToServerEvents> = io(server.baseUrl, { path: '/socket.io/', transports: ['websocket'], auth: { token }, reconnection: false });
   const watch: TableWatch = { socket, tables: [], joinedAt: -1 };
   watches.push(watch);
@@ -156,7 +156,7 @@ async function watchTables(token: string): Promise<TableWatch> {
     watch.tables.push({ bytes: Buffer.from(wireBytes(message.table)!), wire: decoded.table });
   });
   const joined = new Promise<void>((resolve) => socket.once(COMPUTE_EVENTS.joined, () => resolve()));
-  socket.once('connect', () => socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId: fixture.sessionId }));
+  socket.once('connect', () => socket.emit(COMPUTE_EVENTS.subscribe, { protocolVersion: PROTOCOL_VERSION, sessionId }));
   await joined;
   watch.joinedAt = watch.tables.length;
   return watch;
@@ -233,6 +233,19 @@ describe('one table per change, shared by every subscriber and kept for undo', (
     expect(got.wire.sequence).toBeGreaterThanOrEqual(latest.wire.sequence);
     expect(counts().workerComputes).toBe(before.workerComputes);
     expect(counts().cachedTables).toBe(before.cachedTables);
+  });
+
+  it('a late subscriber never gets the last table when the patch was replaced while no live document was open', async () => {
+    const lead = as(server.app, fixture.members.lead.token);
+    const created = await lead.post(`/api/studios/${fixture.studioId}/sessions`).send({ name: 'Tide-bell wire, no one editing' }).expect(201);
+    const sessionId = created.body.session.id as string;
+    // Only the compute channel follows this session: no live document is open for it.
+    const first = await tableWhere(await watchTables(fixture.members.lead.token, sessionId), () => true, 'a table from the stored patch');
+    expect(server.tautline.hub.room(sessionId)).toBeUndefined();
+    const patch = created.body.session.patch;
+    await lead.patch(`/api/sessions/${sessionId}`).send({ patch: { ...patch, string: { ...patch.string, tensionN: first.wire.string.tensionN + 5 } } }).expect(200);
+    const late = await tableWhere(await watchTables(fixture.members.designer.token, sessionId), () => true, 'a table for the late subscriber');
+    expect(late.wire.string.tensionN).toBe(first.wire.string.tensionN + 5);
   });
 
   it('a table is stamped with a document version and state vector at or past the edit it shows', async () => {
