@@ -291,6 +291,8 @@ export async function collabBench() {
           holds: step.holds,
         })),
         largestSessionsHeld: largest,
+        // What one event loop could carry at the first step's cost per edit (the step where the server kept up): 1000 ms ÷ (ms per edit × edits per session per second).
+        sessionsOneEventLoopCouldCarry: steps.length ? round(1000 / (steps[0].server.mainThreadMsPerEdit * EDITORS_PER_CAPACITY_SESSION * DRAG_HZ)) : null,
         nextStepBreaksBecause: firstBroken ? whyBroken(firstBroken) : null,
       },
       server: { rssMBAtStart: round(rssAtStart), rssMBAtEnd: round(processStats(pid).rssMB) },
