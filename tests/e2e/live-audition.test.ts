@@ -87,7 +87,7 @@ describe('live audition while dragging', () => {
     await page.mouse.down();
     const moves = Math.round((DRAG_S * 1000) / MOVE_EVERY_MS);
     for (let step = 1; step <= moves; step++) {
-      const along = Math.sin((Math.PI * step) / moves / 0.75); // out to 1, back to about 0.7
+      const along = Math.sin((0.75 * Math.PI * step) / moves); // out to 1 (100 mm), back to about 0.7 (145 mm)
       await page.mouse.move(handle.x - along * 0.15 * pxPerM, handle.y);
       await page.waitForTimeout(MOVE_EVERY_MS);
     }

@@ -175,7 +175,7 @@ describe('live audition crossfade, rendered by Chromium in an OfflineAudioContex
     expect(worstExcessJump(hard.output, previewA, previewB, firstFrame, hardSwitch - 480, hardSwitch + fadeFrames + 480, fadeFrames)).toBeGreaterThan(MINUS_60_DB * peak);
   }, 60_000);
 
-  it('a progressive preview starts on its first 250 ms and is extended seamlessly; a newer one waits until it is ready at the playhead', async () => {
+  it('a progressive preview starts on its first 250 ms and is extended seamlessly; a newer one with only part of itself ready waits for the rest', async () => {
     const quarter = Math.round(0.25 * RATE_HZ);
     const steps: Step[] = [
       { atS: 0, call: 'play', sound: { sequence: 2, preview: 'b', readySamples: quarter } },
@@ -208,6 +208,33 @@ describe('live audition crossfade, rendered by Chromium in an OfflineAudioContex
     expect(error).toBeLessThan(1e-6 * peak);
     expect(worstExcessJump(output, previewB, previewC, firstFrame, switchFrame - 480, switchFrame + fadeFrames + 480, fadeFrames)).toBeLessThanOrEqual(MINUS_60_DB * peak);
     for (let k = switchFrame + fadeFrames; k < output.length; k++) error = Math.max(error, Math.abs(output[k] - at(previewC, k - firstFrame)));
+    expect(error).toBeLessThan(1e-6 * peak);
+  }, 60_000);
+
+  it('a voice built from part of a preview, about to run out (its synthesis stopped by a newer table), falls back to the latest complete preview at the same place', async () => {
+    const quarter = Math.round(0.25 * RATE_HZ);
+    const steps: Step[] = [
+      { atS: 0, call: 'play', sound: { sequence: 2, preview: 'b', readySamples: quarter } },
+      // An older but complete preview: not played (older), kept as the one to fall back to.
+      { atS: 0.05, call: 'follow', sound: { sequence: 1, preview: 'a' } },
+      // 0.16 s: a newer preview with 0.1 s ready, not enough; the playing voice holds only 0.25 s.
+      { atS: 0.16, call: 'follow', sound: { sequence: 3, preview: 'c', readySamples: 4800 } },
+    ];
+    const { output, events } = await renderInChromium(steps, 0.8);
+    expect(events.map((event) => [event.kind, event.sequence])).toEqual([
+      ['start', 2],
+      ['fallback', 1],
+    ]);
+    const firstFrame = Math.round(events[0].atS * RATE_HZ);
+    const switchFrame = Math.round(events[1].atS * RATE_HZ);
+    const fadeFrames = Math.round(CROSSFADE_S * RATE_HZ);
+    // The fade is over before the partial voice's samples end.
+    expect(switchFrame + fadeFrames - firstFrame).toBeLessThan(quarter);
+    const peak = Math.max(...previewA.map(Math.abs), ...previewB.map(Math.abs));
+    expect(worstExcessJump(output, previewB, previewA, firstFrame, switchFrame - 480, switchFrame + fadeFrames + 480, fadeFrames)).toBeLessThanOrEqual(MINUS_60_DB * peak);
+    // After it, preview A at the loop's place: sound, not the silence past the partial voice's end.
+    let error = 0;
+    for (let k = switchFrame + fadeFrames; k < output.length; k++) error = Math.max(error, Math.abs(output[k] - at(previewA, k - firstFrame)));
     expect(error).toBeLessThan(1e-6 * peak);
   }, 60_000);
 });

@@ -12,9 +12,9 @@ import { isPlayable } from './preview-playable';
  * each preview that becomes playable, so latencies can be matched edit by edit afterwards.
  */
 export interface AuditionProbe {
-  /** The loop's events, in order (start, crossfade, extend, stop, ended, gap). */
+  /** The loop's events, in order (start, crossfade, extend, fallback, stop, ended, gap). */
   loopEvents: LoopEvent[];
-  counts: { starts: number; crossfades: number; extensions: number; stops: number; ended: number; gaps: number };
+  counts: { starts: number; crossfades: number; extensions: number; fallbacks: number; stops: number; ended: number; gaps: number };
   /** For each voice started: its preview's sequence and a fingerprint of its ready samples. */
   voices: Array<{ sequence: number; readySamples: number; fingerprint: number }>;
   /** Analyser windows (about 43 ms each, polled every 40 ms while a preview plays) whose peak was below 1e-5: silence. */
@@ -58,7 +58,7 @@ class ProbeRecorder {
   constructor() {
     this.state = {
       loopEvents: [],
-      counts: { starts: 0, crossfades: 0, extensions: 0, stops: 0, ended: 0, gaps: 0 },
+      counts: { starts: 0, crossfades: 0, extensions: 0, fallbacks: 0, stops: 0, ended: 0, gaps: 0 },
       voices: [],
       silentWindows: 0,
       heardWindows: 0,
@@ -84,10 +84,11 @@ class ProbeRecorder {
     if (event.kind === 'start') counts.starts++;
     else if (event.kind === 'crossfade') counts.crossfades++;
     else if (event.kind === 'extend') counts.extensions++;
+    else if (event.kind === 'fallback') counts.fallbacks++;
     else if (event.kind === 'stop') counts.stops++;
     else if (event.kind === 'ended') counts.ended++;
     else counts.gaps++;
-    if (samples && (event.kind === 'start' || event.kind === 'crossfade' || event.kind === 'extend')) {
+    if (samples && event.kind !== 'stop' && event.kind !== 'ended' && event.kind !== 'gap') {
       let fingerprint = 0;
       const ready = Math.min(samples.length, event.readySamples);
       for (let i = 0; i < ready; i += 7) fingerprint += Math.abs(samples[i]) * ((i % 13) + 1);

@@ -19,9 +19,14 @@
  *   3 dB bump, and extending a voice with more of the same preview must change nothing at all.
  * - One crossfade at a time: a sound that arrives while one runs waits (only the newest is kept)
  *   and follows when it ends, so every crossfade starts from one voice at full gain.
- * - A newer preview is taken when its ready part covers the playhead for `horizonS` past the end
- *   of the fade (or it is complete); otherwise it waits for more of itself. Looping off, the voice
- *   plays once and only more of the same preview is taken.
+ * - A newer preview is taken once complete, or sooner when its ready part already covers the
+ *   playhead for `newerAheadS` past the fade; otherwise it waits for more of itself. More of the
+ *   playing preview is taken once complete or when the playhead comes within `extendWithinS` of the
+ *   end of what the voice holds. While people edit fast, the synthesis of a preview is often
+ *   stopped by a newer table before it completes: a voice built from part of a preview could then
+ *   run into silence, so a partial newer preview is taken only with a long stretch ready, and a
+ *   voice about to run out falls back to the latest complete preview (kind 'fallback').
+ *   Looping off, the voice plays once and only more of the same preview is taken.
  */
 
 /** A preview as the loop plays it: the first `readySamples` of `samples` are final. */
@@ -36,7 +41,7 @@ export interface LoopSound {
 
 /** What the loop did, for whoever watches (the test probe). */
 export interface LoopEvent {
-  kind: 'start' | 'crossfade' | 'extend' | 'stop' | 'ended' | 'gap';
+  kind: 'start' | 'crossfade' | 'extend' | 'fallback' | 'stop' | 'ended' | 'gap';
   sequence: number;
   /** Context time the change begins, s. */
   atS: number;
@@ -52,8 +57,10 @@ export interface LoopCrossfadeOptions {
   fadeS?: number;
   /** How far ahead of the context's current time a change is scheduled, s. */
   leadS?: number;
-  /** How much ready sound past the fade a newer preview needs before it is taken, s. */
-  horizonS?: number;
+  /** How much ready sound past the fade a partial newer preview needs before it is taken, s. */
+  newerAheadS?: number;
+  /** More of the playing preview is taken when the playhead comes this close to the end of what the voice holds, s. */
+  extendWithinS?: number;
   /** Told of every change; a voice's start brings the samples it was built from. */
   onEvent?: (event: LoopEvent, samples?: Float32Array) => void;
   /** Schedules a later check (default setTimeout); the tests' offline rendering never needs one. */
@@ -64,8 +71,10 @@ export interface LoopCrossfadeOptions {
 export const CROSSFADE_S = 0.012;
 /** Scheduling lead, s: comfortably more than one render quantum (128 frames) at any rate. */
 export const SCHEDULE_LEAD_S = 0.008;
-/** Ready sound a newer preview must have past the fade before it is taken, s. */
-export const READY_HORIZON_S = 0.1;
+/** Ready sound a partial newer preview must have past the fade before it is taken, s. */
+export const NEWER_AHEAD_S = 1;
+/** More of the playing preview is taken this close to the end of what its voice holds, s. */
+export const EXTEND_WITHIN_S = 0.1;
 /** A source stops this long after its gain reached 0, s. */
 const STOP_TAIL_S = 0.005;
 
@@ -91,13 +100,16 @@ export class LoopCrossfade {
   readonly output: GainNode;
   readonly fadeS: number;
   readonly leadS: number;
-  readonly horizonS: number;
+  readonly newerAheadS: number;
+  readonly extendWithinS: number;
   private voices: Voice[] = [];
   /** The voice at full gain once the last scheduled change is done. */
   private leader: Voice | null = null;
   /** Context time the last scheduled change is over. */
   private busyUntilS = 0;
   private pending: LoopSound | null = null;
+  /** The newest complete sound seen: what a voice about to run out of samples falls back to. */
+  private lastComplete: LoopSound | null = null;
   private timer: unknown = null;
   private looping = false;
   private readonly onEvent: (event: LoopEvent, samples?: Float32Array) => void;
@@ -109,7 +121,8 @@ export class LoopCrossfade {
   ) {
     this.fadeS = options.fadeS ?? CROSSFADE_S;
     this.leadS = options.leadS ?? SCHEDULE_LEAD_S;
-    this.horizonS = options.horizonS ?? READY_HORIZON_S;
+    this.newerAheadS = options.newerAheadS ?? NEWER_AHEAD_S;
+    this.extendWithinS = options.extendWithinS ?? EXTEND_WITHIN_S;
     this.onEvent = options.onEvent ?? (() => undefined);
     this.setTimer = options.setTimer ?? ((run, delayMs) => setTimeout(run, delayMs));
     this.output = context.createGain();
@@ -129,6 +142,7 @@ export class LoopCrossfade {
   play(sound: LoopSound, loop: boolean): LoopEvent {
     this.pending = null;
     this.looping = loop;
+    this.lastComplete = sound.complete ? sound : null;
     const atS = this.changeTimeS();
     return this.switchTo(sound, atS, 0, 'start');
   }
@@ -140,6 +154,7 @@ export class LoopCrossfade {
   follow(sound: LoopSound): LoopEvent | null {
     const leader = this.leader;
     if (!leader) return null;
+    if (sound.complete && sound.sequence >= (this.lastComplete?.sequence ?? -Infinity)) this.lastComplete = sound;
     if (sound.sequence < leader.sequence) return null;
     if (sound.sequence > leader.sequence && !this.looping) return null;
     if (sound.sequence === leader.sequence && (sound.readySamples <= leader.readySamples || leader.complete)) return null;
@@ -153,21 +168,23 @@ export class LoopCrossfade {
     }
     const positionS = this.positionAt(leader, atS);
     if (positionS === null) return null; // played once, to its end
-    const needS = this.fadeS + this.horizonS;
     const sameSound = sound.sequence === leader.sequence;
     const readyS = sound.readySamples / sound.sampleRateHz;
     const positionInSoundS = positionS % (sound.samples.length / sound.sampleRateHz);
-    // More of the playing preview is taken once complete, or when the playhead nears the end of
-    // what the playing voice holds; a newer preview once it is ready past the playhead.
-    const leaderReadyS = leader.readySamples / leader.sampleRateHz;
-    const ready = sound.complete || (sameSound ? leaderReadyS - positionS < needS : readyS >= positionInSoundS + needS);
-    if (!ready) {
-      // Not ready where the loop plays: wait for more of it (a later call brings it).
-      this.pending = sound;
-      return null;
+    const leaderAheadS = leader.complete ? Infinity : leader.readySamples / leader.sampleRateHz - positionS;
+    const ready = sound.complete || (sameSound ? leaderAheadS < this.fadeS + this.extendWithinS : readyS >= positionInSoundS + this.fadeS + this.newerAheadS);
+    if (ready) {
+      this.pending = null;
+      return this.switchTo(sound, atS, positionInSoundS, sameSound ? 'extend' : 'crossfade');
     }
-    this.pending = null;
-    return this.switchTo(sound, atS, positionInSoundS, sameSound ? 'extend' : 'crossfade');
+    // Not ready where the loop plays: wait for more of it (a later call brings it). If the playing
+    // voice is about to run out of samples meanwhile, fall back to the latest complete preview.
+    this.pending = sound;
+    const fallback = this.lastComplete;
+    if (leaderAheadS < this.fadeS + this.extendWithinS && fallback && fallback !== sound) {
+      return this.switchTo(fallback, atS, positionS % (fallback.samples.length / fallback.sampleRateHz), 'fallback');
+    }
+    return null;
   }
 
   /** Looping on or off for what plays (and what follows). */
