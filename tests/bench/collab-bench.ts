@@ -44,6 +44,7 @@ interface BenchEditor {
   readonly tableBytes: number[];
   tables: number;
   edits: number;
+  movesRefused: number;
   recording: boolean;
   drag(t: number): void;
   close(): void;
@@ -73,6 +74,7 @@ class AppEditor implements BenchEditor {
   readonly tableBytes: number[] = [];
   tables = 0;
   edits = 0;
+  movesRefused = 0;
   recording = false;
   private readonly waiting: Array<{ clock: number; at: number }> = [];
   private readonly seen = new Map<string, number>();
@@ -125,7 +127,7 @@ class AppEditor implements BenchEditor {
       const parts = patchDoc(doc);
       const lengthM = parts.string.get('lengthM') as number;
       const centreM = (lengthM * (index + 1)) / (editors + 1);
-      movePoint(doc, 'displacement', index + 1, centreM + 0.01 * Math.sin(t * 3 + index), 0.002 + 0.001 * Math.sin(t * 5 + index), origin);
+      if (!movePoint(doc, 'displacement', index, centreM + 0.01 * Math.sin(t * 3 + index), 0.002 + 0.001 * Math.sin(t * 5 + index), origin).ok) this.movesRefused++;
       parts.extras.set(stampKey(index), at);
     });
     this.edits++;
@@ -174,6 +176,7 @@ async function drive(editors: BenchEditor[], seconds: number, serverPid: number)
   return {
     seconds: round(windowS),
     editsPerS: round(edits / windowS),
+    movesRefused: editors.reduce((sum, editor) => sum + editor.movesRefused, 0),
     editToTableMs: latencySummary(all((editor) => editor.computeMs)),
     propagationMs: latencySummary(all((editor) => editor.propagationMs)),
     tablesPerSPerEditor: round(editors.reduce((sum, editor) => sum + editor.tables, 0) / editors.length / windowS),

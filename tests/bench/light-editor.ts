@@ -26,7 +26,7 @@ export interface LightEditorOptions {
   baseUrl: string;
   sessionId: string;
   token: string;
-  /** This editor's place in its session (0…editors−1): the point it drags and its stamp's key. */
+  /** This editor’s place in its session (0…editors−1): the interior point it drags (the supports are not in the document) and its stamp’s key. */
   index: number;
   editors: number;
 }
@@ -49,6 +49,8 @@ export class LightEditor {
   readonly tableBytes: number[] = [];
   tables = 0;
   edits = 0;
+  /** Drags whose point could not move (each still stamps, so it still makes an edit): 0 in a sound run. */
+  movesRefused = 0;
   /** Edits still waiting for a table that covers them: the document clock after each, and when it was made. */
   private readonly waiting: Array<{ clock: number; at: number }> = [];
   private readonly seenStamps = new Map<string, number>();
@@ -135,7 +137,7 @@ export class LightEditor {
     const centreM = (lengthM * (index + 1)) / (editors + 1);
     const at = performance.now();
     doc.transact(() => {
-      movePoint(doc, 'displacement', index + 1, centreM + 0.01 * Math.sin(t * 3 + index), 0.002 + 0.001 * Math.sin(t * 5 + index));
+      if (!movePoint(doc, 'displacement', index, centreM + 0.01 * Math.sin(t * 3 + index), 0.002 + 0.001 * Math.sin(t * 5 + index)).ok) this.movesRefused++;
       parts.extras.set(stampKey(index), at);
     });
     this.edits++;
