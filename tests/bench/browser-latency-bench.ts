@@ -15,6 +15,7 @@ import { availableParallelism } from 'node:os';
 import { pathToFileURL } from 'node:url';
 import type { Page } from 'playwright-core';
 import { startE2eHarness } from '../support/e2e-harness';
+import { cpuBetween, cpuSample } from './cpu-share';
 import { EDITORS, RemoteTeammates, TEAMMATE_DRAG_HZ, editLatencies, openMeasuringPage, prepareBenchSession, readProbe, round, selectPoint, spread } from './remote-teammates';
 
 const EDIT_S = Number(process.env.LATENCY_BENCH_SECONDS ?? 6);
@@ -54,7 +55,7 @@ async function settle(page: Page): Promise<number> {
  * One measured run: the page's presses, then its edits matched to tables and previews. The load
  * (if any) stops before the page is read: a page overwhelmed by it would answer only much later.
  */
-async function measure(page: Page, pressHz: number, load?: { start: () => void; stop: () => Promise<void> }) {
+async function measure(page: Page, serverPid: number, pressHz: number, load?: { start: () => void; stop: () => Promise<void> }) {
   const settledAfterS = await settle(page);
   if (load) {
     load.start();
@@ -62,7 +63,9 @@ async function measure(page: Page, pressHz: number, load?: { start: () => void; 
   }
   const sinceMs = (await page.evaluate('performance.now()')) as number;
   const wallStarted = performance.now();
+  const cpuStart = cpuSample(serverPid);
   const presses = await nudgeFor(page, pressHz);
+  const cpu = cpuBetween(cpuStart, cpuSample(serverPid));
   const pressingS = (performance.now() - wallStarted) / 1000;
   await load?.stop();
   await page.waitForTimeout(1500); // the last edits' tables and previews arrive
@@ -79,6 +82,7 @@ async function measure(page: Page, pressHz: number, load?: { start: () => void; 
     editToTableMs: spread(toTable),
     editToFirstAudioMs: spread(toAudio),
     editsWithNoTable: unmatched,
+    cpuPercentOfOneCore: cpu,
   };
 }
 
@@ -87,16 +91,17 @@ export async function browserLatencyBench(): Promise<Record<string, unknown>> {
   let teammates: RemoteTeammates | null = null;
   try {
     const session = await prepareBenchSession(harness);
+    const serverPid = harness.app.child.pid as number;
     const page = await openMeasuringPage(harness);
     // The page's own point is the last of the eight; the teammates take the others.
     await selectPoint(page, session.patch, EDITORS - 1);
     await page.waitForTimeout(500);
-    const oneEditor = await measure(page, SPACED_PRESS_HZ);
-    const oneEditorKeyRepeat = await measure(page, REPEAT_PRESS_HZ);
+    const oneEditor = await measure(page, serverPid, SPACED_PRESS_HZ);
+    const oneEditorKeyRepeat = await measure(page, serverPid, REPEAT_PRESS_HZ);
 
     const load = await RemoteTeammates.open(session, EDITORS - 1);
     teammates = load;
-    const eightEditors = await measure(page, SPACED_PRESS_HZ, { start: () => load.startDragging(), stop: () => load.stopDragging() });
+    const eightEditors = await measure(page, serverPid, SPACED_PRESS_HZ, { start: () => load.startDragging(), stop: () => load.stopDragging() });
     const teammateEdits = teammates.edits;
     const teammateRefusals = teammates.refused;
 
@@ -105,6 +110,7 @@ export async function browserLatencyBench(): Promise<Record<string, unknown>> {
     return {
       note: `one headless Chromium page (software rendering), the app server, its compute worker and ${EDITORS - 1} Node teammates share this machine's ${availableParallelism()} cores`,
       cores: availableParallelism(),
+      cpuMeans: 'CPU use while the page pressed, in percent of one core: the whole machine, Chromium, the app server (with its compute worker), this driver (with the teammates), and other processes; much use by other processes means the figures are not this app\'s alone',
       means:
         'editToTableMs: from the page taking the edit into its document until the first mode table whose state vector includes it has reached the page (decoded); editToFirstAudioMs: until the audition first sees a preview of that table (or a later one) with its first 250 ms ready',
       edits: `arrow-key nudges of the page's own point (1 mm to and fro), ${EDIT_S} s per run: ${SPACED_PRESS_HZ} a second (each edit's own latency), and at key repeat's ${REPEAT_PRESS_HZ} a second alone`,

@@ -10,11 +10,11 @@
  * replaces the three pages this measured before, which mostly measured Chromium competing with
  * itself for two cores. Run alone with `npx tsx tests/bench/editor-fps-bench.ts`.
  */
-import { readdirSync, readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { pathToFileURL } from 'node:url';
 import type { Browser, Page } from 'playwright-core';
 import { startE2eHarness } from '../support/e2e-harness';
+import { cpuBetween, cpuSample } from './cpu-share';
 import { EDITORS, RemoteTeammates, TEAMMATE_DRAG_HZ, openMeasuringPage, percentile, pointPx, prepareBenchSession, round } from './remote-teammates';
 
 const DRAG_S = Number(process.env.EDITOR_BENCH_SECONDS ?? 5);
@@ -152,62 +152,6 @@ async function dragFor(page: Page, from: { x: number; y: number }, phase: number
   await Promise.all(pending);
   await page.mouse.up();
   return { sent, skipped, seconds, ackMs };
-}
-
-/** CPU seconds so far, from /proc (Linux, clock ticks of 1/100 s): the machine, and this bench's own processes. */
-interface CpuSample {
-  atMs: number;
-  machineBusyS: number;
-  /** The bench's process tree, split: Chromium (all its processes), the app server (with its worker threads), the rest (this driver). */
-  browserS: number;
-  serverS: number;
-  driverS: number;
-}
-
-function cpuSample(serverPid: number): CpuSample {
-  const fields = readFileSync('/proc/stat', 'utf8').split('\n')[0].trim().split(/\s+/).slice(1).map(Number);
-  const machineBusyS = (fields.reduce((sum, value) => sum + value, 0) - fields[3] - (fields[4] ?? 0)) / 100;
-  const processes = new Map<number, { parent: number; name: string; cpuS: number }>();
-  for (const entry of readdirSync('/proc')) {
-    if (!/^\d+$/.test(entry)) continue;
-    try {
-      const stat = readFileSync(`/proc/${entry}/stat`, 'utf8');
-      const name = stat.slice(stat.indexOf('(') + 1, stat.lastIndexOf(')'));
-      const rest = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-      processes.set(Number(entry), { parent: Number(rest[1]), name, cpuS: (Number(rest[11]) + Number(rest[12])) / 100 });
-    } catch {
-      // The process ended between the listing and the read.
-    }
-  }
-  const sample = { atMs: performance.now(), machineBusyS, browserS: 0, serverS: 0, driverS: 0 };
-  for (const [pid, info] of processes) {
-    // Walk up to this driver; note on the way whether the app server is an ancestor (or the process itself).
-    let underServer = false;
-    let current: number | undefined = pid;
-    while (current !== undefined && current > 1 && current !== process.pid) {
-      if (current === serverPid) underServer = true;
-      current = processes.get(current)?.parent;
-    }
-    if (current !== process.pid) continue;
-    if (underServer) sample.serverS += info.cpuS;
-    else if (info.name.startsWith('chrom')) sample.browserS += info.cpuS;
-    else sample.driverS += info.cpuS;
-  }
-  return sample;
-}
-
-/** CPU use between two samples, in percent of one core. */
-function cpuBetween(before: CpuSample, after: CpuSample) {
-  const seconds = (after.atMs - before.atMs) / 1000;
-  const percent = (value: number) => round((value / seconds) * 100);
-  const ours = after.browserS - before.browserS + (after.serverS - before.serverS) + (after.driverS - before.driverS);
-  return {
-    wholeMachine: percent(after.machineBusyS - before.machineBusyS),
-    chromium: percent(after.browserS - before.browserS),
-    appServer: percent(after.serverS - before.serverS),
-    benchDriver: percent(after.driverS - before.driverS),
-    otherProcesses: percent(Math.max(0, after.machineBusyS - before.machineBusyS - ours)),
-  };
 }
 
 function frameFigures(frames: number[], longTasks: Array<{ startTime: number; duration: number }>) {
