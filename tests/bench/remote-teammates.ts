@@ -143,7 +143,8 @@ export class RemoteTeammates {
       const positionM = homeM + SWING_M * (Math.sin((2 * Math.PI * t) / SWING_PERIOD_S + phase) - Math.sin(phase));
       let result: { ok: boolean } = { ok: false };
       connection.edit((doc, origin) => {
-        result = movePoint(doc, 'displacement', index + 1, positionM, heightM, origin);
+        // The document holds the interior points only: its point `index` is the patch's `index + 1`.
+        result = movePoint(doc, 'displacement', index, positionM, heightM, origin);
       });
       if (result.ok) this.edits++;
       else this.refused++;
