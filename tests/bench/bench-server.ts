@@ -20,6 +20,8 @@ export function startBenchServer(nodeArgs: string[] = []): Promise<{ child: Chil
   const env = { ...process.env, DATABASE_PATH: join(dir, 'bench.sqlite'), JWT_SECRET: randomBytes(32).toString('hex'), PORT: '0', SMTP_URL: 'smtp://127.0.0.1:9' };
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/main.ts'], { cwd: ROOT, env });
+    // Never left running when the benchmark's process ends, however it ends.
+    process.once('exit', () => child.kill('SIGKILL'));
     let output = '';
     child.stdout?.on('data', (chunk: Buffer) => {
       output += chunk.toString();
