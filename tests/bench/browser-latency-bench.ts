@@ -16,7 +16,7 @@ import { pathToFileURL } from 'node:url';
 import type { Page } from 'playwright-core';
 import { startE2eHarness } from '../support/e2e-harness';
 import { cpuBetween, cpuSample } from './cpu-share';
-import { EDITORS, RemoteTeammates, TEAMMATE_DRAG_HZ, editLatencies, openMeasuringPage, prepareBenchSession, readProbe, round, selectPoint, spread } from './remote-teammates';
+import { EDITORS, RemoteTeammates, clientBuildKind, TEAMMATE_DRAG_HZ, editLatencies, openMeasuringPage, prepareBenchSession, readProbe, round, selectPoint, spread } from './remote-teammates';
 
 const EDIT_S = Number(process.env.LATENCY_BENCH_SECONDS ?? 6);
 /** Key presses a second: spaced, so each edit's latency is its own; and key repeat's rate, which a busy page cannot keep up with. */
@@ -110,6 +110,7 @@ export async function browserLatencyBench(): Promise<Record<string, unknown>> {
     return {
       note: `one headless Chromium page (software rendering), the app server, its compute worker and ${EDITORS - 1} Node teammates share this machine's ${availableParallelism()} cores`,
       cores: availableParallelism(),
+      clientBuild: clientBuildKind(),
       cpuMeans: 'CPU use while the page pressed, in percent of one core: the whole machine, Chromium, the app server (with its compute worker), this driver (with the teammates), and other processes; much use by other processes means the figures are not this app\'s alone',
       means:
         'editToTableMs: from the page taking the edit into its document until the first mode table whose state vector includes it has reached the page (decoded); editToFirstAudioMs: until the audition first sees a preview of that table (or a later one) with its first 250 ms ready',

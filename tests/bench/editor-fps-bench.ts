@@ -15,7 +15,7 @@ import { pathToFileURL } from 'node:url';
 import type { Browser, Page } from 'playwright-core';
 import { startE2eHarness } from '../support/e2e-harness';
 import { cpuBetween, cpuSample } from './cpu-share';
-import { EDITORS, RemoteTeammates, TEAMMATE_DRAG_HZ, openMeasuringPage, percentile, pointPx, prepareBenchSession, round } from './remote-teammates';
+import { EDITORS, RemoteTeammates, clientBuildKind, TEAMMATE_DRAG_HZ, openMeasuringPage, percentile, pointPx, prepareBenchSession, round } from './remote-teammates';
 
 const DRAG_S = Number(process.env.EDITOR_BENCH_SECONDS ?? 5);
 const STEP_MS = 16;
@@ -250,6 +250,7 @@ export async function editorFpsBench(): Promise<Record<string, unknown>> {
     return {
       note: `one headless Chromium page (software rendering, --disable-gpu); the app server with its compute worker, Chromium and the ${EDITORS - 1} Node teammates (this driver) share this machine's ${availableParallelism()} cores`,
       cores: availableParallelism(),
+      clientBuild: clientBuildKind(),
       session: 'the demo session with an eight-point shape, one point for each editor',
       teammates: { count: EDITORS - 1, dragHz: TEAMMATE_DRAG_HZ, each: 'an edit (movePoint) and a presence update per move, one gesture per run' },
       peersShownOnPage: peersSeen,

@@ -9,6 +9,8 @@
  * plucks about 120 points per edit), and at 7 × 30 such edits a second the page froze for tens of
  * seconds and the teammates' connections dropped (measured here; see docs/performance.md).
  */
+import { readdirSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { movePoint } from '../../shared/collab/point-edits';
 import type { Patch } from '../../shared/patch/patch-schema';
@@ -17,6 +19,7 @@ import { CANVAS_MARGIN_PX } from '../../src/features/editor/components/string-ca
 import type { SessionConnection } from '../../src/lib/live-session/session-connection';
 import { openClient, waitForSnapshot } from '../support/collab-client';
 import type { E2eHarness } from '../support/e2e-harness';
+import { PROJECT_ROOT } from '../support/run-cli';
 import { api, logIn } from './bench-api';
 
 export const BENCH_SESSION = 'Lighthouse stair climb';
@@ -26,6 +29,11 @@ export const TEAMMATE_DRAG_HZ = 30;
 /** How far each teammate's point swings either side of where it lies, m, and the swing's period, s. */
 const SWING_M = 0.012;
 const SWING_PERIOD_S = 1.1;
+
+/** Which React build the served client is: a development build (jsxDEV) is several times slower and must not be measured. */
+export function clientBuildKind(): 'production' | 'development' {
+  return readdirSync(join(PROJECT_ROOT, 'dist', 'assets')).some((name) => name.startsWith('jsx-dev-runtime')) ? 'development' : 'production';
+}
 
 export const round = (value: number) => Math.round(value * 100) / 100;
 
