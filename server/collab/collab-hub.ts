@@ -140,6 +140,8 @@ export class CollabHub extends EventEmitter {
     } else {
       await this.closing.get(sessionId);
       await resetStored();
+      // No live document: the compute channel's subscribers still get the new patch's table.
+      this.emit('change', sessionId);
     }
   }
 

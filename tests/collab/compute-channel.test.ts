@@ -248,6 +248,20 @@ describe('one table per change, shared by every subscriber and kept for undo', (
     expect(late.wire.string.tensionN).toBe(first.wire.string.tensionN + 5);
   });
 
+  it('a subscriber with no live document open gets the new table when the patch is replaced through the API', async () => {
+    const lead = as(server.app, fixture.members.lead.token);
+    const created = await lead.post(`/api/studios/${fixture.studioId}/sessions`).send({ name: 'Harbour-chain wire, watched only' }).expect(201);
+    const sessionId = created.body.session.id as string;
+    const watch = await watchTables(fixture.members.listener.token, sessionId);
+    const first = await tableWhere(watch, () => true, 'a table from the stored patch');
+    expect(server.tautline.hub.room(sessionId)).toBeUndefined();
+    const patch = created.body.session.patch;
+    const tensionN = first.wire.string.tensionN + 7;
+    await lead.patch(`/api/sessions/${sessionId}`).send({ patch: { ...patch, string: { ...patch.string, tensionN } } }).expect(200);
+    const next = await tableWhere(watch, (wire) => wire.string.tensionN === tensionN, 'the replaced patch’s table', watch.tables.indexOf(first) + 1);
+    expect(next.wire.sequence).toBeGreaterThan(first.wire.sequence);
+  });
+
   it('a table is stamped with a document version and state vector at or past the edit it shows', async () => {
     const writer = client('designer');
     await waitForSnapshot(writer, (s) => s.synced && s.result !== null, 10_000, 'writer synced');
