@@ -17,6 +17,8 @@
  *   `fadeS`, so their sum is 1 throughout. Linear rather than equal-power: successive previews of
  *   one drag are almost the same signal (correlated), for which equal-power gains would add a
  *   3 dB bump, and extending a voice with more of the same preview must change nothing at all.
+ * - Play starts the new voice at full gain on its first sample (the preview's own onset) while
+ *   whatever played fades out; stop fades out over the same length.
  * - One crossfade at a time: a sound that arrives while one runs waits (only the newest is kept)
  *   and follows when it ends, so every crossfade starts from one voice at full gain.
  * - A newer preview is taken once complete, or sooner when its ready part already covers the
