@@ -43,7 +43,8 @@ describe('shared session document', () => {
     await waitForSnapshot(b, (s) => s.synced && s.patch !== null, 5000, 'b synced');
     a.edit((doc, origin) => movePoint(doc, 'displacement', 1, 0.17, 0.004, origin));
     b.edit((doc) => patchDoc(doc).damping.set('b1PerS', 2.5));
-    await eventually(() => docJson(a) === docJson(b) && a.getSnapshot().patch?.damping.b1PerS === 2.5, 5000, 'convergence');
+    // Each snapshot follows its document once per frame: wait for both, not only a's.
+    await eventually(() => docJson(a) === docJson(b) && a.getSnapshot().patch?.damping.b1PerS === 2.5 && b.getSnapshot().patch?.excitation.displacementM[2]?.[0] === 0.17, 5000, 'convergence');
     const patchA = a.getSnapshot().patch;
     expect(patchA?.excitation.displacementM[2]).toEqual([0.17, 0.004]);
     expect(b.getSnapshot().patch).toEqual(patchA);

@@ -14,6 +14,7 @@ import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, SESSION_NOTICE_EVENT, type Live
 import type { ClientToServerEvents, ServerToClientEvents } from '../../../shared/protocol/socket-events';
 import { modeTableMessageSchema, invalidMessageSchema, joinedMessageSchema, refusedMessageSchema, sessionNoticeSchema } from '../../../shared/protocol/socket-payloads';
 import { MalformedMessages } from '../socket-messages';
+import { sharedStructure } from './shared-structure';
 
 /** What a teammate shares about themselves while in a session. */
 export interface Presence {
@@ -105,6 +106,24 @@ export function computeResultFromTable(sessionId: string, bytes: unknown): { ok:
   return { ok: true, result: { ...table, sessionId, sequence: wire.sequence, documentVersion: wire.documentVersion, modeCount: table.count, computeMs: wire.computeMs, wire, byteLength } };
 }
 
+/** The empty issue list, shared so that a valid patch after a valid patch changes nothing that panels compare. */
+const NO_ISSUES: FieldIssue[] = [];
+
+/**
+ * y-websocket relays every presence change it applies, teammates' included, back to the server,
+ * which already sent it to everyone: with n people each move crossed the link n times and each page
+ * encoded and sent n − 1 echoes. Only this person's own presence is sent from here.
+ */
+function relayOwnPresenceOnly(provider: WebsocketProvider, doc: Y.Doc): void {
+  const relay = provider._awarenessUpdateHandler;
+  provider.awareness.off('update', relay);
+  provider._awarenessUpdateHandler = ({ added, updated, removed }: { added: number[]; updated: number[]; removed: number[] }, origin: unknown) => {
+    const own = doc.clientID;
+    if (added.includes(own) || updated.includes(own) || removed.includes(own)) relay({ added: [], updated: [own], removed: [] }, origin);
+  };
+  provider.awareness.on('update', provider._awarenessUpdateHandler);
+}
+
 /** y-websocket's message type for auth (permission denied). */
 const MESSAGE_AUTH = 2;
 
@@ -158,8 +177,10 @@ export class SessionConnection {
   /** The origin of this person's edits; only these are undone. */
   readonly localOrigin = Symbol('local-edit');
   private snapshot: SessionSnapshot;
-  private readonly patchFrame = frameCoalescer(() => this.update(this.readPatch()));
-  private readonly peersFrame = frameCoalescer(() => this.updatePeers());
+  /** The document and presence changes of a frame, read once and announced together (one render per frame, however many updates arrived). */
+  private readonly frame = frameCoalescer(() => this.flushFrame());
+  private patchChanged = false;
+  private peersChanged = false;
   private readonly listeners = new Set<() => void>();
   private everConnected = false;
   /** The sequence of the last table shown in this subscription (a fresh `joined` starts again at 0). */
@@ -221,7 +242,7 @@ export class SessionConnection {
     if (!received.ok) return this.malformed.note(COMPUTE_EVENTS.table, [received.reason]);
     if (received.result.sequence <= this.lastSequence) return;
     this.lastSequence = received.result.sequence;
-    this.update({ result: received.result, computeIssues: [] });
+    this.update({ result: received.result, computeIssues: NO_ISSUES });
   }
 
   /** A fresh document, provider and undo manager, wired to the snapshot. */
@@ -262,11 +283,26 @@ export class SessionConnection {
       const local = origin === this.localOrigin || origin === undoManager;
       if (local && this.snapshot.connection !== 'connected' && !this.snapshot.hasPendingEdits) this.update({ hasPendingEdits: true });
       // Reading and validating the patch once per frame is enough, however many updates arrive.
-      this.patchFrame.request();
+      this.patchChanged = true;
+      this.frame.request();
     });
     undoManager.on('stack-item-added', () => this.updateUndo());
     undoManager.on('stack-item-popped', () => this.updateUndo());
-    provider.awareness.on('change', () => this.peersFrame.request());
+    provider.awareness.on('change', () => {
+      this.peersChanged = true;
+      this.frame.request();
+    });
+    relayOwnPresenceOnly(provider, doc);
+  }
+
+  /** Announces the frame's document and presence changes in one snapshot. */
+  private flushFrame(): void {
+    const changes: Partial<SessionSnapshot> = {};
+    if (this.patchChanged) Object.assign(changes, this.readPatch());
+    if (this.peersChanged) changes.peers = this.readPeers();
+    this.patchChanged = false;
+    this.peersChanged = false;
+    this.update(changes);
   }
 
   /**
@@ -340,19 +376,20 @@ export class SessionConnection {
 
   private readPatch(): Pick<SessionSnapshot, 'patch' | 'patchIssues'> {
     const result = validatedPatchFromDoc(this.doc);
-    return result.ok ? { patch: result.value, patchIssues: [] } : { patch: this.snapshot.patch, patchIssues: result.issues };
+    // Parts that did not change keep their identity, so a memoised panel whose section is the same skips its render.
+    return result.ok ? { patch: sharedStructure(this.snapshot.patch, result.value), patchIssues: NO_ISSUES } : { patch: this.snapshot.patch, patchIssues: result.issues };
   }
 
   private updateUndo(): void {
     this.update({ canUndo: this.undoManager.canUndo(), canRedo: this.undoManager.canRedo() });
   }
 
-  private updatePeers(): void {
+  private readPeers(): SessionSnapshot['peers'] {
     const peers: SessionSnapshot['peers'] = [];
     this.provider.awareness.getStates().forEach((state, clientId) => {
       if (clientId !== this.doc.clientID && state && typeof state.name === 'string') peers.push({ ...(state as Presence), clientId });
     });
-    this.update({ peers });
+    return peers;
   }
 
   private update(changes: Partial<SessionSnapshot>): void {
@@ -400,8 +437,7 @@ export class SessionConnection {
   getSnapshot = (): SessionSnapshot => this.snapshot;
 
   destroy(): void {
-    this.patchFrame.cancel();
-    this.peersFrame.cancel();
+    this.frame.cancel();
     this.listeners.clear();
     this.socket.disconnect();
     this.undoManager.destroy();

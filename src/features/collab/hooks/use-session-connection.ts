@@ -1,14 +1,15 @@
-import { useCallback, useEffect, useRef, useState, useSyncExternalStore } from 'react';
-import { SessionConnection, type Presence, type SessionSnapshot } from '../../../lib/live-session/session-connection';
+import { useCallback, useEffect, useRef, useState } from 'react';
+import { SessionConnection, type Presence } from '../../../lib/live-session/session-connection';
 
 /**
  * Opens a live session for as long as the component is mounted: document, presence, undo/redo,
- * connection state and the latest compute result, re-rendering on every change.
+ * connection state and the latest compute result. It does not re-render on the session's changes:
+ * each part of the page reads what it shows with `useSessionValue`.
  */
 export function useSessionConnection(
   sessionId: string,
   presence: Pick<Presence, 'name' | 'colour'>,
-): { connection: SessionConnection | null; snapshot: SessionSnapshot | null; reopen: () => void } {
+): { connection: SessionConnection | null; reopen: () => void } {
   const [connection, setConnection] = useState<SessionConnection | null>(null);
   // Raised to open the session again after the server ended it (signed in again, for instance).
   const [opening, setOpening] = useState(0);
@@ -23,9 +24,5 @@ export function useSessionConnection(
     setConnection(opened);
     return () => opened.destroy();
   }, [sessionId, opening]);
-  const snapshot = useSyncExternalStore(
-    connection?.subscribe ?? (() => () => undefined),
-    () => connection?.getSnapshot() ?? null,
-  );
-  return { connection, snapshot, reopen };
+  return { connection, reopen };
 }

@@ -38,6 +38,12 @@ export interface StringCanvasProps {
 }
 
 export const CANVAS_MARGIN_PX = 36;
+const COLOURS = {
+  dark: { axis: '#323a4a', string: '#e8b64f', point: '#f2cf7e', text: '#b7bfcc', pickup: '#4cc7b8', mode: '#ef8566' },
+  light: { axis: '#b7bfcc', string: '#a8741a', point: '#d49a2a', text: '#323a4a', pickup: '#1f8f82', mode: '#c24b2b' },
+};
+/** The freehand stroke's points while no stroke is drawn: one array, so a render does not touch the line. */
+const NO_POINTS: number[] = [];
 /** How far outside a contact's edge its width grip is drawn, so a narrow contact's grips stay clear of the handle's ring. */
 const EDGE_GRIP_PX = 16;
 const MARGIN_PX = CANVAS_MARGIN_PX;
@@ -64,11 +70,10 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
     };
   }, [widthPx, heightPx, lengthM, displayRangeM]);
 
-  const colours = dark
-    ? { axis: '#323a4a', string: '#e8b64f', point: '#f2cf7e', text: '#b7bfcc', pickup: '#4cc7b8', mode: '#ef8566' }
-    : { axis: '#b7bfcc', string: '#a8741a', point: '#d49a2a', text: '#323a4a', pickup: '#1f8f82', mode: '#c24b2b' };
+  const colours = dark ? COLOURS.dark : COLOURS.light;
 
-  const flat = points.flatMap(([x, y]) => [scale.xToPx(x), scale.yToPx(y)]);
+  // Kept while the shape is the same object (the connection keeps unchanged parts), so a teammate's pointer moving does not redraw the string.
+  const flat = useMemo(() => points.flatMap(([x, y]) => [scale.xToPx(x), scale.yToPx(y)]), [points, scale]);
   // The strike layer (initial velocity) has its own vertical scale, drawn over the same axis.
   const strike = patch.excitation.velocityMPerS;
   // Held still while someone drags (as the displacement's range is), so a strike handle stays under the pointer.
@@ -78,7 +83,32 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
   const halfHeightPx = heightPx / 2 - MARGIN_PX;
   const velocityToPx = (vMPerS: number) => heightPx / 2 - (vMPerS / velocityRangeMPerS) * halfHeightPx;
   const pxToVelocity = (px: number) => ((heightPx / 2 - px) / halfHeightPx) * velocityRangeMPerS;
-  const ticks = niceTicks([0, lengthM * 1000], 8).valuesMm.map((mm) => mm / 1000);
+  /*
+   * What stays still while people drag (background, axis, scale, supports) is a layer of its own,
+   * built only when the size, scale or theme changes: a drag redraws the string's layer, not this
+   * one, and it is never hit-tested.
+   */
+  const backdrop = useMemo(() => {
+    const ink = dark ? COLOURS.dark : COLOURS.light;
+    const ticks = niceTicks([0, lengthM * 1000], 8).valuesMm.map((mm) => mm / 1000);
+    return (
+      <Layer listening={false}>
+        <Rect width={widthPx} height={heightPx} fill={dark ? '#171b22' : '#ffffff'} />
+        <Line points={[MARGIN_PX, midPx, widthPx - MARGIN_PX, midPx]} stroke={ink.axis} strokeWidth={1} />
+        {ticks.map((tickM) => (
+          <Group key={tickM}>
+            <Line points={[scale.xToPx(tickM), heightPx - MARGIN_PX + 6, scale.xToPx(tickM), heightPx - MARGIN_PX + 12]} stroke={ink.text} strokeWidth={1} />
+            <Text x={scale.xToPx(tickM) - 20} y={heightPx - MARGIN_PX + 14} width={40} align="center" text={`${Math.round(tickM * 1000)}`} fontSize={10} fill={ink.text} />
+          </Group>
+        ))}
+        <Text x={widthPx - MARGIN_PX - 60} y={heightPx - 14} width={60} align="right" text="mm" fontSize={10} fill={ink.text} />
+        <Text x={4} y={4} text={`±${(displayRangeM * 1000).toFixed(1)} mm (exaggerated)`} fontSize={10} fill={ink.text} />
+        {[0, lengthM].map((xM) => (
+          <Rect key={xM} x={scale.xToPx(xM) - 3} y={midPx - 14} width={6} height={28} fill={ink.text} cornerRadius={1} />
+        ))}
+      </Layer>
+    );
+  }, [dark, lengthM, widthPx, heightPx, midPx, displayRangeM, scale]);
   const modeLine = useMemo(() => {
     if (!highlightMode) return null;
     const samples = 200;
@@ -159,20 +189,8 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
       }}
       style={{ cursor: drawing ? 'crosshair' : undefined }}
     >
+      {backdrop}
       <Layer>
-        <Rect width={widthPx} height={heightPx} fill={dark ? '#171b22' : '#ffffff'} />
-        <Line points={[MARGIN_PX, midPx, widthPx - MARGIN_PX, midPx]} stroke={colours.axis} strokeWidth={1} />
-        {ticks.map((tickM) => (
-          <Group key={tickM}>
-            <Line points={[scale.xToPx(tickM), heightPx - MARGIN_PX + 6, scale.xToPx(tickM), heightPx - MARGIN_PX + 12]} stroke={colours.text} strokeWidth={1} />
-            <Text x={scale.xToPx(tickM) - 20} y={heightPx - MARGIN_PX + 14} width={40} align="center" text={`${Math.round(tickM * 1000)}`} fontSize={10} fill={colours.text} />
-          </Group>
-        ))}
-        <Text x={widthPx - MARGIN_PX - 60} y={heightPx - 14} width={60} align="right" text="mm" fontSize={10} fill={colours.text} />
-        <Text x={4} y={4} text={`±${(displayRangeM * 1000).toFixed(1)} mm (exaggerated)`} fontSize={10} fill={colours.text} />
-        {[0, lengthM].map((xM) => (
-          <Rect key={xM} x={scale.xToPx(xM) - 3} y={midPx - 14} width={6} height={28} fill={colours.text} cornerRadius={1} />
-        ))}
         {modeLine && <Line points={modeLine} stroke={colours.mode} strokeWidth={1.5} dash={[6, 4]} opacity={0.8} />}
         <Line
           points={flat}
@@ -341,7 +359,10 @@ export function StringCanvas({ connection, patch, readOnly, peers, widthPx, heig
           <Line points={[0, -22, -7, -34, 7, -34]} closed fill={colours.pickup} stroke={selected?.layer === 'pickup' ? colours.point : undefined} strokeWidth={2} />
           <Text x={-30} y={-48} width={60} align="center" text="pickup" fontSize={10} fill={colours.pickup} />
         </Group>
-        <Line ref={strokeLine} points={[]} stroke={drawLayer === 'velocity' ? colours.pickup : colours.string} strokeWidth={1.5} opacity={0.7} listening={false} />
+        <Line ref={strokeLine} points={NO_POINTS} stroke={drawLayer === 'velocity' ? colours.pickup : colours.string} strokeWidth={1.5} opacity={0.7} listening={false} />
+      </Layer>
+      {/* Teammates' pointers: redrawn as they move, never hit-tested. */}
+      <Layer listening={false}>
         {peers
           .filter((peer) => peer.pointerXM !== null)
           .map((peer) => (
