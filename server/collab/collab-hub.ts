@@ -5,7 +5,6 @@ import { LIVE_ACCESS_MESSAGES, LIVE_CLOSE_CODES, type SessionNotice } from '../.
 import { LIMITS } from '../../shared/limits';
 import { CollabRoom, type Connection } from './collab-room';
 import type { CollabStorage } from './collab-storage';
-import { SharedUpdateWriter } from './shared-update-writer';
 
 const HEARTBEAT_MS = 30_000;
 
@@ -17,15 +16,12 @@ export class CollabHub extends EventEmitter {
   private readonly rooms = new Map<string, CollabRoom>();
   private readonly closing = new Map<string, Promise<void>>();
   private readonly heartbeat: NodeJS.Timeout;
-  /** Writes every room's updates, one transaction per tick for all of them. */
-  private readonly writer: SharedUpdateWriter;
 
   constructor(
     private readonly storage: CollabStorage,
     private readonly log: (line: string) => void,
   ) {
     super();
-    this.writer = new SharedUpdateWriter(storage);
     this.heartbeat = setInterval(() => this.checkAlive(), HEARTBEAT_MS);
     this.heartbeat.unref();
   }
@@ -62,7 +58,7 @@ export class CollabHub extends EventEmitter {
     await this.closing.get(sessionId);
     let room = this.rooms.get(sessionId);
     if (!room) {
-      room = new CollabRoom(sessionId, this.storage, this.log, this.writer);
+      room = new CollabRoom(sessionId, this.storage, this.log);
       this.rooms.set(sessionId, room);
       room.on('change', () => this.emit('change', sessionId));
       room.on('notice', (notice: SessionNotice) => this.emit('notice', notice));

@@ -10,7 +10,6 @@ import { writePatchToDoc, validatedPatchFromDoc } from '../../shared/collab/patc
 import type { Patch } from '../../shared/patch/patch-schema';
 import type { Role } from '../../shared/access/roles';
 import type { CollabStorage } from './collab-storage';
-import { SharedUpdateWriter } from './shared-update-writer';
 import { closeReason, LiveEditGate } from './live-edit-gate';
 import { filterPresenceUpdate } from './presence-filter';
 import { readStoredLog } from './stored-log-repair';
@@ -27,6 +26,7 @@ const MESSAGE_QUERY_AWARENESS = 3;
 export const STORAGE_ORIGIN = Symbol('storage');
 export const SERVER_ORIGIN = Symbol('server');
 
+const FLUSH_MS = 20;
 const PATCH_REFRESH_MS = 200;
 const COMPACT_EVERY_UPDATES = 500;
 
@@ -60,8 +60,7 @@ function sortedJson(value: unknown): string {
 
 /**
  * One session's live document: its connections, presence, and persistence. Every update is queued
- * for the database before it is broadcast, and written within FLUSH_MS (on the hub's shared writer,
- * one transaction for every session's rows of a tick); the session's patch JSON is
+ * for the database before it is broadcast, and written within FLUSH_MS; the session's patch JSON is
  * refreshed shortly after each change. Emits `change` (the last writer's user id) after each edit.
  */
 export class CollabRoom extends EventEmitter {
@@ -70,8 +69,7 @@ export class CollabRoom extends EventEmitter {
   readonly connections = new Set<Connection>();
   readonly ready: Promise<void>;
   private pending: Uint8Array[] = [];
-  /** The room's flush as the shared writer calls it on its tick. */
-  private readonly flushOnTick = () => void this.flush();
+  private flushTimer: NodeJS.Timeout | null = null;
   private writes: Promise<unknown> = Promise.resolve();
   private lastUpdateId = 0;
   /** Edits admitted since the room opened: the version a mode table is stamped with. */
@@ -96,7 +94,6 @@ export class CollabRoom extends EventEmitter {
     readonly sessionId: string,
     private readonly storage: CollabStorage,
     private readonly log: (line: string) => void,
-    private readonly writer: SharedUpdateWriter = new SharedUpdateWriter(storage),
   ) {
     super();
     this.awareness.setLocalState(null); // the server has no presence of its own
@@ -148,7 +145,7 @@ export class CollabRoom extends EventEmitter {
     this.admitted++;
     // Persist first, then broadcast: the update is queued for the database before anyone sees it.
     this.pending.push(update);
-    this.writer.flushSoon(this.flushOnTick);
+    this.flushTimer ??= setTimeout(() => void this.flush(), FLUSH_MS);
     const encoder = encoding.createEncoder();
     encoding.writeVarUint(encoder, MESSAGE_SYNC);
     syncProtocol.writeUpdate(encoder, update);
@@ -164,15 +161,16 @@ export class CollabRoom extends EventEmitter {
     return this.admitted;
   }
 
-  /** Writes queued updates as one row (in the shared writer's next transaction); writes run one after another, in order. */
+  /** Writes queued updates in one transaction; writes run one after another, in order. */
   flush(): Promise<unknown> {
-    this.writer.cancel(this.flushOnTick);
+    if (this.flushTimer) clearTimeout(this.flushTimer);
+    this.flushTimer = null;
     const batch = this.pending;
     this.pending = [];
     if (batch.length > 0 && !this.storingStopped) {
       this.writes = this.writes
         // One row per flush: the batch merged into a single update (Yjs merges without loss).
-        .then(() => this.writer.append(this.sessionId, batch.length === 1 ? batch[0] : Y.mergeUpdates(batch)))
+        .then(() => this.storage.append(this.sessionId, [batch.length === 1 ? batch[0] : Y.mergeUpdates(batch)]))
         .then((lastId) => {
           this.lastUpdateId = lastId;
           this.setStoring(true);
@@ -382,8 +380,9 @@ export class CollabRoom extends EventEmitter {
    */
   async stopStoring(): Promise<void> {
     this.storingStopped = true;
-    this.writer.cancel(this.flushOnTick);
+    if (this.flushTimer) clearTimeout(this.flushTimer);
     if (this.patchTimer) clearTimeout(this.patchTimer);
+    this.flushTimer = null;
     this.patchTimer = null;
     this.pending = [];
     await this.writes;

@@ -15,16 +15,13 @@ export interface StoredDocument {
 /** Where a session's collaborative document lives; the collaboration layer sees only this interface. */
 export interface CollabStorage {
   load(sessionId: string): Promise<StoredDocument | null>;
-  /** Appends rows (of any sessions) in one transaction; returns each row's id, in the order given. */
-  appendRows(rows: ReadonlyArray<{ sessionId: string; update: Uint8Array }>): Promise<number[]>;
+  /** Appends updates in one transaction; returns the id of the last row written. */
+  append(sessionId: string, updates: Uint8Array[]): Promise<number>;
   /** Replaces the snapshot with `state` and drops the log rows up to `upToId`, in one transaction. */
   compact(sessionId: string, state: Uint8Array, upToId: number): Promise<void>;
   /** Refreshes the session's patch JSON (for the REST API and the command line). */
   savePatch(sessionId: string, patch: Patch, userId: string | null): Promise<void>;
 }
-
-/** Rows per INSERT statement: two parameters each. */
-const INSERT_ROWS_PER_STATEMENT = 400;
 
 /** The TypeORM implementation on the sessions table and the session_updates log. */
 export function typeormCollabStorage(dataSource: DataSource, clock: () => Date): CollabStorage {
@@ -40,20 +37,14 @@ export function typeormCollabStorage(dataSource: DataSource, clock: () => Date):
         lastUpdateId: rows.length > 0 ? rows[rows.length - 1].id : 0,
       };
     },
-    async appendRows(rows) {
+    async append(sessionId, updates) {
       return dataSource.transaction(async (manager) => {
-        const ids: number[] = [];
-        // Multi-row inserts, each within SQLite's oldest bound of 999 parameters.
-        for (let start = 0; start < rows.length; start += INSERT_ROWS_PER_STATEMENT) {
-          const chunk = rows.slice(start, start + INSERT_ROWS_PER_STATEMENT);
-          const returned = (await manager.query(
-            `INSERT INTO "session_updates" ("sessionId", "update") VALUES ${chunk.map(() => '(?, ?)').join(', ')} RETURNING "id"`,
-            chunk.flatMap((row) => [row.sessionId, Buffer.from(row.update.buffer, row.update.byteOffset, row.update.byteLength)]),
-          )) as Array<{ id: number }>;
-          // One statement's rows take increasing ids in the order of its VALUES (AUTOINCREMENT); RETURNING's own order is not promised.
-          ids.push(...returned.map((row) => Number(row.id)).sort((a, b) => a - b));
+        let lastId = 0;
+        for (const update of updates) {
+          const result = await manager.insert(SessionUpdate, { sessionId, update: Buffer.from(update) });
+          lastId = Number(result.identifiers[0].id);
         }
-        return ids;
+        return lastId;
       });
     },
     async compact(sessionId, state, upToId) {
