@@ -2,8 +2,13 @@
  * A simulated editor for load: the live document over a hand-spoken y-websocket protocol and the
  * compute channel over socket.io, as a browser tab holds them, without the web app's per-frame
  * patch validation, so a few hundred fit in the benchmark's process. It drags one point of the
- * displacement and stamps each edit, and records:
- * - propagation: how long a teammate's stamped edit took to reach it;
+ * displacement at 30 Hz exactly as the editor's drag does (movePoint: each edit sets the point's x
+ * and y and nothing else), and records:
+ * - propagation: how long a teammate's edit took to reach it. The sender notes, in this process,
+ *   when it sent each value of its point's y; a teammate that sees a new y looks the time up. (With
+ *   COLLAB_BENCH_STAMP=document the time travels in the document instead, as a pass-through field
+ *   of the patch, set in the same edit: every edit is then no longer a pure drag, and the server
+ *   checks the whole patch for each.)
  * - compute: how long its own edit took to come back as a mode table that covers it (the table's
  *   Yjs state vector includes the edit), decoded as the browser decodes it.
  */
@@ -42,6 +47,14 @@ export function coveredClock(stateVector: Uint8Array, clientId: number): number 
 /** The stamp key of editor `index`: the time it made its latest edit, by this process's clock. */
 export const stampKey = (index: number) => `bench-stamp-${index}`;
 
+/** Stamps travel in the document (a pass-through field set with each drag) rather than beside it. */
+const STAMP_IN_DOCUMENT = process.env.COLLAB_BENCH_STAMP === 'document';
+
+/** When each editor (by session and index) sent each y of its point, by this process's clock: its last few edits. */
+const sentAt = new Map<string, Map<number, number>>();
+const SENT_KEPT = 256;
+const senderKey = (sessionId: string, index: number) => `${sessionId}:${index}`;
+
 export class LightEditor {
   readonly doc = new Y.Doc();
   readonly propagationMs: number[] = [];
@@ -51,7 +64,7 @@ export class LightEditor {
   edits = 0;
   /** Tables that did not decode: 0 in a sound run. */
   badTables = 0;
-  /** Drags whose point could not move (each still stamps, so it still makes an edit): 0 in a sound run. */
+  /** Drags whose point could not move: 0 in a sound run. */
   movesRefused = 0;
   /** Edits still waiting for a table that covers them: the document clock after each, and when it was made. */
   private readonly waiting: Array<{ clock: number; at: number }> = [];
@@ -120,18 +133,23 @@ export class LightEditor {
   private onRemote(): void {
     if (!this.recording) return;
     const now = performance.now();
-    const extras = patchDoc(this.doc).extras;
+    const parts = patchDoc(this.doc);
     for (let other = 0; other < this.options.editors; other++) {
       if (other === this.options.index) continue;
       const key = stampKey(other);
-      const sent = extras.get(key) as number | undefined;
+      let sent: number | undefined;
+      if (STAMP_IN_DOCUMENT) sent = parts.extras.get(key) as number | undefined;
+      else {
+        const y = parts.displacement.get(other)?.get('y') as number | undefined;
+        sent = y === undefined ? undefined : sentAt.get(senderKey(this.options.sessionId, other))?.get(y);
+      }
       if (sent === undefined || this.seenStamps.get(key) === sent) continue;
       this.seenStamps.set(key, sent);
       this.propagationMs.push(now - sent);
     }
   }
 
-  /** Moves this editor's point to phase `t` (seconds) of its drag, with a stamp, as one edit. */
+  /** Moves this editor's point to phase `t` (seconds) of its drag, as one edit. */
   drag(t: number): void {
     const { index, editors } = this.options;
     const doc = this.doc;
@@ -139,9 +157,17 @@ export class LightEditor {
     const lengthM = parts.string.get('lengthM') as number;
     const centreM = (lengthM * (index + 1)) / (editors + 1);
     const at = performance.now();
+    const y = 0.002 + 0.001 * Math.sin(t * 5 + index);
+    if (!STAMP_IN_DOCUMENT) {
+      const key = senderKey(this.options.sessionId, index);
+      const sent = sentAt.get(key) ?? new Map<number, number>();
+      sentAt.set(key, sent);
+      sent.set(y, at);
+      if (sent.size > SENT_KEPT) sent.delete(sent.keys().next().value as number);
+    }
     doc.transact(() => {
-      if (!movePoint(doc, 'displacement', index, centreM + 0.01 * Math.sin(t * 3 + index), 0.002 + 0.001 * Math.sin(t * 5 + index)).ok) this.movesRefused++;
-      parts.extras.set(stampKey(index), at);
+      if (!movePoint(doc, 'displacement', index, centreM + 0.01 * Math.sin(t * 3 + index), y).ok) this.movesRefused++;
+      if (STAMP_IN_DOCUMENT) parts.extras.set(stampKey(index), at);
     });
     this.edits++;
     this.waiting.push({ clock: Y.getState(doc.store, doc.clientID), at });
