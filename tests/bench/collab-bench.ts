@@ -22,7 +22,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/seed/demo-seed';
 import { SessionConnection } from '../../src/lib/live-session/session-connection';
 import { api, logIn } from './bench-api';
 import { latencySummary, machineBusyS, processStats, round, startBenchServer, stopBenchServer } from './bench-server';
-import { coveredClock, LightEditor, stampKey } from './light-editor';
+import { coveredClock, LightEditor, settleCoveredEdits, stampKey } from './light-editor';
 
 // Each y-websocket provider registers a process exit listener.
 process.setMaxListeners(64);
@@ -89,12 +89,7 @@ class AppEditor implements BenchEditor {
       shown = result;
       const now = performance.now();
       const covered = coveredClock(result.wire.stateVector, connection.doc.clientID);
-      let done = 0;
-      while (done < this.waiting.length && this.waiting[done].clock <= covered) {
-        if (this.recording) this.computeMs.push(now - this.waiting[done].at);
-        done++;
-      }
-      this.waiting.splice(0, done);
+      settleCoveredEdits(this.waiting, covered, now, this.recording ? this.computeMs : null);
       if (!this.recording) return;
       this.tables++;
       this.tableBytes.push(result.byteLength);

@@ -47,6 +47,19 @@ export function coveredClock(stateVector: Uint8Array, clientId: number): number 
 /** The stamp key of editor `index`: the time it made its latest edit, by this process's clock. */
 export const stampKey = (index: number) => `bench-stamp-${index}`;
 
+/**
+ * Removes from `waiting` the edits a table covering clock `covered` shows (they are in clock order)
+ * and, when `computeMs` is given, records how long each waited.
+ */
+export function settleCoveredEdits(waiting: Array<{ clock: number; at: number }>, covered: number, now: number, computeMs: number[] | null): void {
+  let done = 0;
+  while (done < waiting.length && waiting[done].clock <= covered) {
+    computeMs?.push(now - waiting[done].at);
+    done++;
+  }
+  waiting.splice(0, done);
+}
+
 /** Stamps travel in the document (a pass-through field set with each drag) rather than beside it. */
 const STAMP_IN_DOCUMENT = process.env.COLLAB_BENCH_STAMP === 'document';
 
@@ -118,12 +131,7 @@ export class LightEditor {
       if (!decoded.ok) return void this.badTables++;
       markTable();
       const covered = coveredClock(decoded.table.stateVector, doc.clientID);
-      let done = 0;
-      while (done < this.waiting.length && this.waiting[done].clock <= covered) {
-        if (this.recording) this.computeMs.push(now - this.waiting[done].at);
-        done++;
-      }
-      this.waiting.splice(0, done);
+      settleCoveredEdits(this.waiting, covered, now, this.recording ? this.computeMs : null);
       if (!this.recording) return;
       this.tables++;
       this.tableBytes.push((message.table as { byteLength: number }).byteLength);
